@@ -1,0 +1,132 @@
+import Ionicons from '@expo/vector-icons/Ionicons';
+import { Link, usePathname } from 'expo-router';
+import type { ReactNode } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
+import { useSafeAreaInsets } from 'react-native-safe-area-context';
+import { AppText } from '@/components/ui/text';
+import { colors, fonts, space } from '@/constants/theme';
+import { useIsWide } from '@/hooks/use-is-wide';
+import { isActive, type NavItem } from './nav-items';
+
+type Props = { area: string; items: NavItem[]; children: ReactNode };
+
+function Brand({ area }: { area: string }) {
+  return (
+    <Link href="/" asChild>
+      <Pressable role="link" aria-label="Basted home" style={styles.brand}>
+        <AppText style={styles.brandName}>Basted</AppText>
+        <AppText variant="caption" style={styles.brandArea}>
+          {area}
+        </AppText>
+      </Pressable>
+    </Link>
+  );
+}
+
+/**
+ * The frame around every signed-in screen: a header and bottom tabs on a phone, a side
+ * navigation on a window at least 900 px wide.
+ */
+export function AppShell({ area, items, children }: Props) {
+  const wide = useIsWide();
+  const pathname = usePathname();
+  const insets = useSafeAreaInsets();
+
+  if (wide) {
+    return (
+      <View style={styles.wideRoot}>
+        <View style={styles.side} role="navigation" aria-label={`${area} navigation`}>
+          <Brand area={area} />
+          {items.map((item) => {
+            const active = isActive(pathname, item.href);
+            return (
+              <Link key={item.href} href={item.href} asChild>
+                <Pressable
+                  role="link"
+                  aria-current={active ? 'page' : undefined}
+                  style={[styles.sideItem, active && styles.sideItemActive]}
+                >
+                  <Ionicons name={item.icon} size={20} color={active ? colors.thread : colors.inkMuted} />
+                  <AppText style={[styles.sideLabel, active && styles.activeLabel]}>{item.label}</AppText>
+                </Pressable>
+              </Link>
+            );
+          })}
+        </View>
+        <View style={styles.main}>{children}</View>
+      </View>
+    );
+  }
+
+  return (
+    <View style={[styles.phoneRoot, { paddingTop: insets.top }]}>
+      <View style={styles.header}>
+        <Brand area={area} />
+      </View>
+      <View style={styles.main}>{children}</View>
+      <View
+        style={[styles.tabs, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
+        role="navigation"
+        aria-label={`${area} navigation`}
+      >
+        {items.map((item) => {
+          const active = isActive(pathname, item.href);
+          return (
+            <Link key={item.href} href={item.href} asChild>
+              <Pressable role="link" aria-current={active ? 'page' : undefined} style={styles.tab}>
+                <Ionicons name={item.icon} size={22} color={active ? colors.thread : colors.inkMuted} />
+                <AppText style={[styles.tabLabel, active && styles.activeLabel]}>{item.label}</AppText>
+              </Pressable>
+            </Link>
+          );
+        })}
+      </View>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  wideRoot: { flex: 1, flexDirection: 'row', backgroundColor: colors.paper },
+  side: {
+    width: 232,
+    borderRightWidth: 1,
+    borderRightColor: colors.line,
+    backgroundColor: colors.surfaceSunken,
+    paddingVertical: space.lg,
+    paddingHorizontal: space.md,
+    gap: space.xs,
+  },
+  sideItem: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.md,
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    borderRadius: 8,
+    minHeight: 44,
+  },
+  sideItemActive: { backgroundColor: colors.threadSoft },
+  sideLabel: { fontFamily: fonts.medium, fontSize: 15, color: colors.inkMuted },
+  activeLabel: { color: colors.thread, fontFamily: fonts.semibold },
+  main: { flex: 1 },
+  phoneRoot: { flex: 1, backgroundColor: colors.paper },
+  header: {
+    borderBottomWidth: 1,
+    borderBottomColor: colors.line,
+    backgroundColor: colors.surfaceSunken,
+    paddingHorizontal: space.lg,
+    paddingVertical: space.sm,
+  },
+  brand: { paddingHorizontal: space.md, paddingVertical: space.sm, marginBottom: space.sm },
+  brandName: { fontFamily: fonts.bold, fontSize: 22, color: colors.thread, letterSpacing: 0.3 },
+  brandArea: { marginTop: 2 },
+  tabs: {
+    flexDirection: 'row',
+    borderTopWidth: 1,
+    borderTopColor: colors.line,
+    backgroundColor: colors.surface,
+    paddingTop: space.xs,
+  },
+  tab: { flex: 1, alignItems: 'center', justifyContent: 'center', minHeight: 52, gap: 2 },
+  tabLabel: { fontFamily: fonts.medium, fontSize: 12, color: colors.inkMuted },
+});

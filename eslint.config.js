@@ -1,0 +1,14 @@
+// https://docs.expo.dev/guides/using-eslint/
+const { defineConfig } = require('eslint/config');
+const expoConfig = require('eslint-config-expo/flat');
+
+module.exports = defineConfig([
+  expoConfig,
+  {
+    ignores: ['dist/*', '.data/*', '.artifacts/*', '.expo/*', 'expo-env.d.ts'],
+  },
+  {
+    files: ['server/**', 'db/**', 'scripts/**', 'tests/server/**', 'tests/e2e/**'],
+    rules: { 'import/no-nodejs-modules': 'off' },
+  },
+]);

@@ -1,0 +1,53 @@
+// Four suites, one run: `npm test` sets up PostgreSQL and the fakes first (scripts/test.sh).
+const alias = { '^@/(.*)$': '<rootDir>/$1' };
+// Server code is plain TypeScript for Node: strip the types and turn modules into CommonJS.
+// (babel-preset-expo is for the app bundle; its Flow pass rejects `declare` model fields.)
+const nodeTransform = {
+  '\\.[jt]s$': [
+    'babel-jest',
+    {
+      configFile: false,
+      babelrc: false,
+      presets: [['@babel/preset-typescript', { allowDeclareFields: true }]],
+      plugins: ['@babel/plugin-transform-modules-commonjs'],
+    },
+  ],
+};
+const node = {
+  testEnvironment: 'node',
+  transform: nodeTransform,
+  moduleNameMapper: alias,
+  setupFiles: ['<rootDir>/tests/support/env.ts'],
+};
+
+module.exports = {
+  // A cold first router render and a browser start take several seconds on two cores.
+  testTimeout: 60_000,
+  transform: nodeTransform,
+  globalSetup: '<rootDir>/tests/support/global-setup.ts',
+  globalTeardown: '<rootDir>/tests/support/global-teardown.ts',
+  projects: [
+    {
+      ...node,
+      displayName: 'unit',
+      testMatch: ['<rootDir>/tests/server/**/*.test.ts'],
+      testPathIgnorePatterns: ['/node_modules/', '<rootDir>/tests/server/api/'],
+    },
+    {
+      ...node,
+      displayName: 'api',
+      testMatch: ['<rootDir>/tests/server/api/**/*.test.ts', '<rootDir>/tests/scripts/**/*.test.ts'],
+    },
+    {
+      displayName: 'app',
+      preset: 'jest-expo',
+      testMatch: ['<rootDir>/tests/app/**/*.test.tsx'],
+      moduleNameMapper: alias,
+    },
+    {
+      ...node,
+      displayName: 'e2e',
+      testMatch: ['<rootDir>/tests/e2e/**/*.test.ts'],
+    },
+  ],
+};

@@ -1,0 +1,23 @@
+#!/usr/bin/env bash
+# npm start: set everything up, then serve Basted in the foreground (Ctrl-C or `npm stop` ends it).
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/env.sh"
+cd "$ROOT"
+bash scripts/setup.sh
+
+PIDFILE="$BASTED_DATA_DIR/run/server.pid"
+if pid_alive "$PIDFILE"; then
+  say "Basted is already running (pid $(cat "$PIDFILE")) on port $PORT; \`npm stop\` stops it"
+  exit 0
+fi
+
+node --import tsx db/cli.ts accounts
+cat >&2 <<MSG
+
+  Basted      http://localhost:$PORT
+  Inbox       $INBOX_URL   (every e-mail the app sends, captured locally)
+  API health  http://localhost:$PORT/api/health
+
+MSG
+echo $$ >"$PIDFILE"
+exec node --import tsx server/index.ts

@@ -1,0 +1,71 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express from 'express';
+import helmet from 'helmet';
+import morgan from 'morgan';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config';
+import { healthRouter } from './health/health.routes';
+import type { Mailer } from './mail/mailer';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import type { Storage } from './storage/storage';
+
+export type AppDeps = {
+  config: Config;
+  sequelize: Sequelize;
+  storage: Storage;
+  mailer: Mailer;
+};
+
+function apiRouter(deps: AppDeps): express.Router {
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use('/health', healthRouter(deps));
+  api.use(apiNotFound);
+  return api;
+}
+
+/** The exported web app, with long caching for its hashed bundles and an SPA fallback. */
+function webApp(distDir: string): express.Router {
+  const web = express.Router();
+  const indexHtml = path.join(distDir, 'index.html');
+  const immutable = { immutable: true, maxAge: '365d', index: false as const };
+  web.use('/_expo', express.static(path.join(distDir, '_expo'), immutable));
+  web.use('/assets', express.static(path.join(distDir, 'assets'), immutable));
+  web.use(express.static(distDir, { index: false }));
+  web.get('/{*splat}', (_req, res) => {
+    if (!existsSync(indexHtml)) {
+      res.status(503).type('text').send('The web app is not built yet: run `npm start` (it exports it).');
+      return;
+    }
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(indexHtml);
+  });
+  return web;
+}
+
+export function createApp(deps: AppDeps): express.Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // react-native-web writes its styles into <style> elements at run time.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          // Signed download links point at the object store's own origin.
+          'upgrade-insecure-requests': null,
+        },
+      },
+    }),
+  );
+  if (deps.config.logRequests) app.use(morgan(deps.config.env === 'production' ? 'combined' : 'dev'));
+  app.use('/api', apiRouter(deps));
+  app.use(webApp(path.resolve(deps.config.webDist)));
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,36 @@
+import nodemailer from 'nodemailer';
+import type { Config } from '../config';
+
+export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
+
+export type Mailer = {
+  send(mail: OutgoingMail): Promise<{ messageId: string }>;
+  /** Connects and greets the SMTP server; throws with the reason when it cannot. */
+  check(): Promise<void>;
+  close(): void;
+};
+
+export function createMailer(config: Config['smtp']): Mailer {
+  const transporter = nodemailer.createTransport({
+    host: config.host,
+    port: config.port,
+    secure: config.secure,
+    // A plain local server offers no TLS; a real provider on 587 upgrades with STARTTLS.
+    ignoreTLS: !config.secure && !config.user,
+    auth: config.user ? { user: config.user, pass: config.password ?? '' } : undefined,
+    connectionTimeout: 5000,
+    greetingTimeout: 5000,
+  });
+  return {
+    async send(mail) {
+      const info = await transporter.sendMail({ from: config.from, ...mail });
+      return { messageId: info.messageId };
+    },
+    async check() {
+      await transporter.verify();
+    },
+    close() {
+      transporter.close();
+    },
+  };
+}

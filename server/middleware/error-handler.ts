@@ -1,0 +1,63 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
+import { ZodError } from 'zod';
+import { AppError } from '../errors';
+
+type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string> } };
+
+function fieldsOf(error: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.join('.') || '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+/** Maps every error to one body shape, { error: { code, message, fields? } }. */
+export function toErrorResponse(err: unknown): { status: number; body: ErrorBody } {
+  if (err instanceof AppError) {
+    return { status: err.status, body: { error: { code: err.code, message: err.message, fields: err.fields } } };
+  }
+  if (err instanceof ZodError) {
+    const fields = fieldsOf(err);
+    const named = Object.keys(fields).join(', ');
+    return {
+      status: 400,
+      body: { error: { code: 'invalid_input', message: `Please check: ${named}.`, fields } },
+    };
+  }
+  if (err instanceof UniqueConstraintError) {
+    const fields: Record<string, string> = {};
+    for (const item of err.errors) if (item.path) fields[item.path] = 'is already taken';
+    return { status: 409, body: { error: { code: 'conflict', message: 'That already exists.', fields } } };
+  }
+  if (err instanceof SequelizeValidationError) {
+    const fields: Record<string, string> = {};
+    for (const item of err.errors) if (item.path) fields[item.path] = item.message;
+    return { status: 400, body: { error: { code: 'invalid_input', message: 'Please check the fields.', fields } } };
+  }
+  // body-parser's errors (malformed JSON, a body over the limit) carry their own status.
+  const status = (err as { status?: unknown })?.status;
+  const type = (err as { type?: unknown })?.type;
+  if (typeof status === 'number' && status >= 400 && status < 500 && typeof type === 'string') {
+    const message =
+      type === 'entity.parse.failed'
+        ? 'The request body is not valid JSON.'
+        : type === 'entity.too.large'
+          ? 'The request body is too large.'
+          : 'The request could not be read.';
+    return { status, body: { error: { code: type.replace(/\./g, '_'), message } } };
+  }
+  return { status: 500, body: { error: { code: 'internal', message: 'Something went wrong on our side.' } } };
+}
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const { status, body } = toErrorResponse(err);
+  if (status >= 500) console.error(`[api] ${req.method} ${req.originalUrl} failed:`, err);
+  res.status(status).json(body);
+};
+
+export const apiNotFound: RequestHandler = (req, res) => {
+  res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.baseUrl}${req.path}.` } });
+};

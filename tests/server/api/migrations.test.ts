@@ -1,0 +1,84 @@
+import { randomBytes } from 'node:crypto';
+import { Client } from 'pg';
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { createSequelize } from '../../../db/sequelize';
+import { migrateDownAll, migrateUp } from '../../../db/migrator';
+import { migrations } from '../../../db/migrations';
+import { DEMO_ACCOUNTS, seedDemoStudio } from '../../../db/seeders/demo-studio';
+
+/** A database of its own, so undoing every migration does not disturb the other suites. */
+async function withScratchDatabase(run: (sequelize: Sequelize) => Promise<void>) {
+  const adminUrl = process.env.BASTED_ADMIN_DATABASE_URL!;
+  const name = `basted_scratch_${randomBytes(4).toString('hex')}`;
+  const admin = new Client({ connectionString: adminUrl });
+  await admin.connect();
+  await admin.query(`CREATE DATABASE "${name}"`);
+  const url = new URL(adminUrl);
+  url.pathname = `/${name}`;
+  const sequelize = createSequelize(url.toString());
+  try {
+    await run(sequelize);
+  } finally {
+    await sequelize.close();
+    await admin.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
+    await admin.end();
+  }
+}
+
+async function tables(sequelize: Sequelize): Promise<string[]> {
+  // Cast: Sequelize returns columns of the sql_identifier type as bare arrays.
+  const rows = await sequelize.query<{ name: string }>(
+    "SELECT table_name::text AS name FROM information_schema.tables WHERE table_schema = 'public' ORDER BY 1",
+    { type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => r.name);
+}
+
+describe('migrations', () => {
+  it('apply in order, and undoing all of them leaves only the migration log', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      const applied = await migrateUp(sequelize);
+      expect(applied).toEqual(migrations.map((m) => m.name));
+      expect(await tables(sequelize)).toEqual(expect.arrayContaining(['users', 'studios', 'memberships']));
+
+      const reverted = await migrateDownAll(sequelize);
+      expect(reverted).toEqual(migrations.map((m) => m.name).reverse());
+      expect(await tables(sequelize)).toEqual(['schema_migrations']);
+
+      // and the whole chain applies again on the emptied schema
+      expect(await migrateUp(sequelize)).toHaveLength(migrations.length);
+    });
+  });
+
+  it('when two processes migrate at once, each migration runs exactly once', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      const other = createSequelize(urlOf(sequelize));
+      try {
+        const [a, b] = await Promise.all([migrateUp(sequelize), migrateUp(other)]);
+        expect([...a, ...b].sort()).toEqual(migrations.map((m) => m.name).sort());
+      } finally {
+        await other.close();
+      }
+    });
+  });
+
+  it('the demo studio loads twice without duplicating anything', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      await migrateUp(sequelize);
+      await seedDemoStudio(sequelize, 4);
+      await seedDemoStudio(sequelize, 4);
+      const [counts] = await sequelize.query<{ users: string; studios: string; memberships: string }>(
+        'SELECT (SELECT count(*) FROM users) AS users, (SELECT count(*) FROM studios) AS studios, (SELECT count(*) FROM memberships) AS memberships',
+        { type: QueryTypes.SELECT },
+      );
+      expect(Number(counts.users)).toBe(DEMO_ACCOUNTS.length);
+      expect(Number(counts.studios)).toBe(1);
+      expect(Number(counts.memberships)).toBe(DEMO_ACCOUNTS.length);
+    });
+  });
+});
+
+function urlOf(sequelize: Sequelize): string {
+  const c = sequelize.config;
+  return `postgres://${c.username}:${c.password}@${c.host}:${c.port}/${c.database}`;
+}
