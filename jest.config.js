@@ -24,8 +24,8 @@ module.exports = {
   // A cold first router render and a browser start take several seconds on two cores.
   testTimeout: 60_000,
   transform: nodeTransform,
-  globalSetup: '<rootDir>/tests/support/global-setup.ts',
-  globalTeardown: '<rootDir>/tests/support/global-teardown.ts',
+  globalSetup: '<rootDir>/tests/support/global-setup.js',
+  globalTeardown: '<rootDir>/tests/support/global-teardown.js',
   projects: [
     {
       ...node,

@@ -10,10 +10,10 @@ import { isActive, type NavItem } from './nav-items';
 
 type Props = { area: string; items: NavItem[]; children: ReactNode };
 
-function Brand({ area }: { area: string }) {
+function Brand({ area, compact = false }: { area: string; compact?: boolean }) {
   return (
     <Link href="/" asChild>
-      <Pressable role="link" aria-label="Basted home" style={styles.brand}>
+      <Pressable role="link" aria-label="Basted home" style={compact ? styles.brandCompact : styles.brand}>
         <AppText style={styles.brandName}>Basted</AppText>
         <AppText variant="caption" style={styles.brandArea}>
           {area}
@@ -26,6 +26,7 @@ function Brand({ area }: { area: string }) {
 /**
  * The frame around every signed-in screen: a header and bottom tabs on a phone, a side
  * navigation on a window at least 900 px wide.
+ * (Link asChild passes its style to the child through a slot that takes flat styles only.)
  */
 export function AppShell({ area, items, children }: Props) {
   const wide = useIsWide();
@@ -44,7 +45,7 @@ export function AppShell({ area, items, children }: Props) {
                 <Pressable
                   role="link"
                   aria-current={active ? 'page' : undefined}
-                  style={[styles.sideItem, active && styles.sideItemActive]}
+                  style={StyleSheet.flatten([styles.sideItem, active && styles.sideItemActive])}
                 >
                   <Ionicons name={item.icon} size={20} color={active ? colors.thread : colors.inkMuted} />
                   <AppText style={[styles.sideLabel, active && styles.activeLabel]}>{item.label}</AppText>
@@ -61,7 +62,7 @@ export function AppShell({ area, items, children }: Props) {
   return (
     <View style={[styles.phoneRoot, { paddingTop: insets.top }]}>
       <View style={styles.header}>
-        <Brand area={area} />
+        <Brand area={area} compact />
       </View>
       <View style={styles.main}>{children}</View>
       <View
@@ -118,6 +119,7 @@ const styles = StyleSheet.create({
     paddingVertical: space.sm,
   },
   brand: { paddingHorizontal: space.md, paddingVertical: space.sm, marginBottom: space.sm },
+  brandCompact: { flexDirection: 'row', alignItems: 'baseline', gap: space.sm, minHeight: 44, paddingTop: space.sm },
   brandName: { fontFamily: fonts.bold, fontSize: 22, color: colors.thread, letterSpacing: 0.3 },
   brandArea: { marginTop: 2 },
   tabs: {

@@ -8,7 +8,7 @@ type Props = { href: Href; label: string; tone?: 'primary' | 'quiet' };
 export function ButtonLink({ href, label, tone = 'primary' }: Props) {
   return (
     <Link href={href} asChild>
-      <Pressable role="link" style={[styles.base, tone === 'primary' ? styles.primary : styles.quiet]}>
+      <Pressable role="link" style={StyleSheet.flatten([styles.base, tone === 'primary' ? styles.primary : styles.quiet])}>
         <AppText style={[styles.label, tone === 'primary' ? styles.primaryLabel : styles.quietLabel]}>{label}</AppText>
       </Pressable>
     </Link>

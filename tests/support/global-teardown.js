@@ -1,6 +1,6 @@
-import { Client } from 'pg';
+const { Client } = require('pg');
 
-export default async function globalTeardown(): Promise<void> {
+module.exports = async function globalTeardown() {
   const name = process.env.BASTED_TEST_DATABASE;
   const adminUrl = process.env.BASTED_ADMIN_DATABASE_URL;
   if (!name || !adminUrl || !/^basted_test_\w+$/.test(name)) return;
@@ -11,4 +11,4 @@ export default async function globalTeardown(): Promise<void> {
   } finally {
     await admin.end();
   }
-}
+};
