@@ -11,4 +11,11 @@ module.exports = defineConfig([
     files: ['server/**', 'db/**', 'scripts/**', 'tests/server/**', 'tests/e2e/**'],
     rules: { 'import/no-nodejs-modules': 'off' },
   },
+  {
+    // Plain CommonJS run by Node (jest's global set-up, script helpers).
+    files: ['**/*.js'],
+    languageOptions: {
+      globals: { __dirname: 'readonly', require: 'readonly', module: 'writable', process: 'readonly', console: 'readonly' },
+    },
+  },
 ]);

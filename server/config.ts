@@ -72,7 +72,7 @@ function toConfig(env: z.infer<typeof envSchema>) {
 export class ConfigError extends Error {}
 
 /** Parses the environment; a bad value stops the boot with every offending variable named. */
-export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
   const parsed = envSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);

@@ -1,5 +1,13 @@
 import nodemailer from 'nodemailer';
-import type { Config } from '../config';
+
+export type SmtpSettings = {
+  host: string;
+  port: number;
+  secure: boolean;
+  user?: string;
+  password?: string;
+  from: string;
+};
 
 export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
 
@@ -10,7 +18,7 @@ export type Mailer = {
   close(): void;
 };
 
-export function createMailer(config: Config['smtp']): Mailer {
+export function createMailer(config: SmtpSettings): Mailer {
   const transporter = nodemailer.createTransport({
     host: config.host,
     port: config.port,

@@ -1,0 +1,187 @@
+// Per kind + direction statistics over the testers of one draft: counts and Wilson intervals
+// per size and overall, amount summaries, and the three tests across sizes (rate trend, amount
+// slope, one size against the rest) plus the correlation with the tester's own body delta.
+import { mean, median, sampleStandardDeviation } from 'simple-statistics';
+import { pearson } from './correlation';
+import { fisherExact } from './fisher';
+import { holmAdjust } from './multiple-testing';
+import { wilsonInterval } from './proportions';
+import { olsFit } from './regression';
+import type { Thresholds } from './thresholds';
+import { cochranArmitage } from './trend';
+import type { AnalysisInput, Direction, Finding, SizeStats, TesterReport } from './types';
+
+/** One tester's view of one draft, with alterations summed per kind + direction. */
+export interface DraftTester {
+  tester: string;
+  size: string;
+  sizeIndex: number;
+  /** Summed signed amount per "kind|direction" key. */
+  amounts: Map<string, number>;
+  /** Kinds the tester made in either direction. */
+  kinds: Set<string>;
+  bodyDeltaMm: Record<string, number>;
+  report: TesterReport;
+}
+
+export type AlterationStats = Omit<Finding, 'class' | 'sizes' | 'reasons'>;
+
+export function directionOf(amountMm: number): Direction {
+  return amountMm > 0 ? 'add' : 'remove';
+}
+
+function key(kind: string, direction: Direction): string {
+  return `${kind}|${direction}`;
+}
+
+/** Draft identifiers present in the reports, in natural order ("2" before "10"). */
+export function listDrafts(input: AnalysisInput): string[] {
+  const drafts = [...new Set(input.reports.map((r) => r.draft))];
+  return drafts.sort((a, b) => a.localeCompare(b, 'en', { numeric: true }));
+}
+
+/**
+ * The testers of one draft. A tester counts once per draft; if several reports of one tester
+ * exist for the same draft the last one is used (the file format rejects such duplicates).
+ */
+export function draftTesters(input: AnalysisInput, draft: string): DraftTester[] {
+  const sizeIndex = new Map(input.sizes.map((s, i) => [s, i] as const));
+  const byTester = new Map<string, TesterReport>();
+  for (const report of input.reports) {
+    if (report.draft === draft) byTester.set(report.tester, report);
+  }
+  return [...byTester.values()].map((report) => {
+    const index = sizeIndex.get(report.size);
+    if (index === undefined) {
+      throw new RangeError(`tester ${report.tester}: size "${report.size}" is not in the size range`);
+    }
+    const amounts = new Map<string, number>();
+    const kinds = new Set<string>();
+    for (const alt of report.alterations) {
+      if (!(alt.amountMm !== 0 && Number.isFinite(alt.amountMm))) continue;
+      const k = key(alt.kind, directionOf(alt.amountMm));
+      // Two entries of one kind and direction (e.g. front and back) add up to the tester's change.
+      amounts.set(k, (amounts.get(k) ?? 0) + alt.amountMm);
+      kinds.add(alt.kind);
+    }
+    return {
+      tester: report.tester,
+      size: report.size,
+      sizeIndex: index,
+      amounts,
+      kinds,
+      bodyDeltaMm: report.bodyDeltaMm ?? {},
+      report,
+    };
+  });
+}
+
+/** Every kind + direction at least one tester of the draft made, sorted by kind then direction. */
+export function kindDirections(testers: readonly DraftTester[]): { kind: string; direction: Direction }[] {
+  const seen = new Map<string, { kind: string; direction: Direction }>();
+  for (const t of testers) {
+    for (const k of t.amounts.keys()) {
+      const [kind, direction] = splitKey(k);
+      seen.set(k, { kind, direction });
+    }
+  }
+  return [...seen.values()].sort(
+    (a, b) => a.kind.localeCompare(b.kind) || a.direction.localeCompare(b.direction),
+  );
+}
+
+function splitKey(k: string): [string, Direction] {
+  const at = k.lastIndexOf('|');
+  return [k.slice(0, at), k.slice(at + 1) as Direction];
+}
+
+function summary(values: number[]): { meanMm: number | null; medianMm: number | null; sdMm: number | null } {
+  if (values.length === 0) return { meanMm: null, medianMm: null, sdMm: null };
+  return {
+    meanMm: mean(values),
+    medianMm: median(values),
+    sdMm: values.length >= 2 ? sampleStandardDeviation(values) : null,
+  };
+}
+
+export function alterationStats(
+  testers: readonly DraftTester[],
+  sizes: readonly string[],
+  kind: string,
+  direction: Direction,
+  t: Thresholds,
+): AlterationStats {
+  const k = key(kind, direction);
+  const N = testers.length;
+  const makers = testers.filter((x) => x.amounts.has(k));
+  const K = makers.length;
+  const kindMakers = testers.filter((x) => x.kinds.has(kind)).length;
+
+  // Per size: n, k, interval and amounts.
+  const perSize = sizes.map((size, index) => {
+    const inSize = testers.filter((x) => x.sizeIndex === index);
+    const amounts = inSize.filter((x) => x.amounts.has(k)).map((x) => x.amounts.get(k) as number);
+    return { size, index, n: inSize.length, k: amounts.length, amounts };
+  });
+
+  // One size against the rest, one-sided (this size's rate is higher), Holm over tested sizes.
+  const occupied = perSize.filter((s) => s.n > 0);
+  const testable = occupied.length >= 2;
+  const rawP = testable
+    ? occupied.map((s) => fisherExact(s.k, s.n - s.k, K - s.k, N - s.n - (K - s.k)).greater)
+    : [];
+  const adjusted = holmAdjust(rawP);
+  const pBySize = new Map(occupied.map((s, i) => [s.index, { raw: rawP[i], adj: adjusted[i] }] as const));
+
+  const bySize: SizeStats[] = perSize.map((s) => {
+    const tests = pBySize.get(s.index);
+    return {
+      size: s.size,
+      n: s.n,
+      k: s.k,
+      rate: s.n > 0 ? s.k / s.n : null,
+      wilson: s.n > 0 ? wilsonInterval(s.k, s.n, t.confidence) : null,
+      ...summary(s.amounts),
+      fisherP: tests?.raw ?? null,
+      holmP: tests?.adj ?? null,
+    };
+  });
+
+  const trend = cochranArmitage(perSize.map((s) => ({ score: s.index, n: s.n, k: s.k })));
+
+  // Amount on size order, only with enough amounts over enough sizes to speak of a line.
+  const xs = makers.map((x) => x.sizeIndex);
+  const ys = makers.map((x) => x.amounts.get(k) as number);
+  const distinctSizes = new Set(xs).size;
+  let amountSlope: AlterationStats['amountSlope'] = null;
+  if (K >= t.slopeMinAmounts && distinctSizes >= t.slopeMinSizes) {
+    const fit = olsFit(xs, ys);
+    if (fit) {
+      amountSlope = { slopeMmPerSize: fit.slope, interceptMm: fit.intercept, p: fit.slopeP, n: fit.n, sizes: distinctSizes };
+    }
+  }
+
+  // Amount against the tester's own body delta for the measurement this kind maps to.
+  const pairs = makers
+    .map((x) => [x.bodyDeltaMm[kind], x.amounts.get(k)] as const)
+    .filter((p): p is readonly [number, number] => typeof p[0] === 'number' && Number.isFinite(p[0]));
+  let bodyCorrelation: AlterationStats['bodyCorrelation'] = null;
+  if (pairs.length >= t.personalFitMinPairs) {
+    bodyCorrelation = pearson(pairs.map((p) => p[0]), pairs.map((p) => p[1]));
+  }
+
+  return {
+    kind,
+    direction,
+    testers: N,
+    count: K,
+    rate: N > 0 ? K / N : 0,
+    wilson: N > 0 ? wilsonInterval(K, N, t.confidence) : [0, 1],
+    ...summary(ys),
+    directionShare: kindMakers > 0 ? K / kindMakers : 0,
+    bySize,
+    trend,
+    amountSlope,
+    bodyCorrelation,
+  };
+}
