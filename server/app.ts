@@ -1,14 +1,19 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
 import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
+import { authRouter } from './auth/auth.routes';
+import { authenticate } from './auth/authenticate';
 import type { Config } from './config';
 import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { invitationLinksRouter } from './invitations/invitations.routes';
 import type { Storage } from './storage/storage';
+import { studiosRouter } from './studios/studios.routes';
 
 export type AppDeps = {
   config: Config;
@@ -20,7 +25,12 @@ export type AppDeps = {
 function apiRouter(deps: AppDeps): express.Router {
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
+  api.use(cookieParser());
+  api.use(authenticate(deps.config.auth));
   api.use('/health', healthRouter(deps));
+  api.use('/auth', authRouter(deps));
+  api.use('/studios', studiosRouter(deps));
+  api.use('/invitations', invitationLinksRouter());
   api.use(apiNotFound);
   return api;
 }

@@ -33,6 +33,13 @@ const envSchema = z.object({
   /** The local inbox of the fake SMTP server; shown to developers only. */
   INBOX_URL: z.url().optional(),
 
+  /** Signs session tokens. Required outside development; at least 32 characters. */
+  JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  SESSION_DAYS: z.coerce.number().int().min(1).max(90).default(14),
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(10),
+  /** Sign-in and password-reset requests allowed per client address in 15 minutes. */
+  AUTH_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
+
   WEB_DIST: z.string().default('dist'),
   LOG_REQUESTS: bool.default(true),
 });
@@ -64,6 +71,14 @@ function toConfig(env: z.infer<typeof envSchema>) {
       from: env.MAIL_FROM,
     },
     inboxUrl: env.NODE_ENV === 'production' ? undefined : env.INBOX_URL,
+    auth: {
+      // Development alone may use a fixed secret; loadConfig refuses it anywhere else.
+      jwtSecret: env.JWT_SECRET ?? 'development-only-secret-never-use-in-production',
+      sessionDays: env.SESSION_DAYS,
+      bcryptCost: env.BCRYPT_COST,
+      rateLimit: env.AUTH_RATE_LIMIT,
+      secureCookies: env.NODE_ENV === 'production',
+    },
     webDist: env.WEB_DIST,
     logRequests: env.LOG_REQUESTS,
   };
@@ -78,8 +93,17 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
   }
-  if (parsed.data.NODE_ENV === 'production' && !parsed.data.S3_ENDPOINT && parsed.data.S3_ACCESS_KEY_ID === 'S3RVER') {
+  if (parsed.data.NODE_ENV === 'production' && parsed.data.S3_ACCESS_KEY_ID === 'S3RVER') {
     throw new ConfigError('Invalid configuration:\n  S3_ACCESS_KEY_ID: set real credentials in production');
   }
+  const problems: string[] = [];
+  if (parsed.data.NODE_ENV !== 'development' && !parsed.data.JWT_SECRET) {
+    problems.push('  JWT_SECRET: required outside development (at least 32 random characters)');
+  }
+  // Cost 10 is the floor for real passwords; tests may go lower for speed.
+  if (parsed.data.NODE_ENV !== 'test' && parsed.data.BCRYPT_COST < 10) {
+    problems.push('  BCRYPT_COST: must be at least 10 outside tests');
+  }
+  if (problems.length) throw new ConfigError(`Invalid configuration:\n${problems.join('\n')}`);
   return toConfig(parsed.data);
 }

@@ -1,8 +1,12 @@
 import type { MigrationFn } from 'umzug';
 import type { QueryInterface } from 'sequelize';
 import * as accounts from './0001-accounts';
+import * as profiles from './0002-profiles-and-invitations';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
 // Listed by hand, in order, so tsx, jest and compiled code all find the same set.
-export const migrations: Migration[] = [{ name: '0001-accounts', ...accounts }];
+export const migrations: Migration[] = [
+  { name: '0001-accounts', ...accounts },
+  { name: '0002-profiles-and-invitations', ...profiles },
+];

@@ -14,6 +14,14 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare email: string;
   declare name: string;
   declare passwordHash: string;
+  declare lengthUnit: CreationOptional<'in' | 'cm'>;
+  declare fabricUnit: CreationOptional<'yd' | 'm'>;
+  declare timeZone: CreationOptional<string>;
+  declare sessionVersion: CreationOptional<number>;
+  declare currentStudioId: CreationOptional<string | null>;
+  declare mailReminders: CreationOptional<boolean>;
+  declare mailTrialNews: CreationOptional<boolean>;
+  declare mailDigest: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare memberships?: NonAttribute<Membership[]>;
@@ -25,6 +33,14 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         email: { type: DataTypes.STRING(254), allowNull: false, validate: { isEmail: true } },
         name: { type: DataTypes.STRING(120), allowNull: false },
         passwordHash: { type: DataTypes.STRING(100), allowNull: false },
+        lengthUnit: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'in' },
+        fabricUnit: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'yd' },
+        timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+        sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        currentStudioId: { type: DataTypes.UUID, allowNull: true },
+        mailReminders: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        mailTrialNews: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        mailDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

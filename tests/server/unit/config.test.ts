@@ -39,8 +39,20 @@ describe('loadConfig', () => {
     const config = loadConfig({
       NODE_ENV: 'production',
       S3_ACCESS_KEY_ID: 'AKIAEXAMPLE',
+      JWT_SECRET: 'x'.repeat(40),
       INBOX_URL: 'http://127.0.0.1:1080',
     });
     expect(config.inboxUrl).toBeUndefined();
+  });
+
+  it('outside development, refuses to start without a JWT secret', () => {
+    expect(() => loadConfig({ NODE_ENV: 'test' })).toThrow(/JWT_SECRET: required outside development/);
+    expect(() => loadConfig({ NODE_ENV: 'test', JWT_SECRET: 'short' })).toThrow(/JWT_SECRET/);
+    expect(loadConfig({ NODE_ENV: 'test', JWT_SECRET: 's'.repeat(32) }).auth.jwtSecret).toBe('s'.repeat(32));
+  });
+
+  it('refuses a bcrypt cost below 10 outside tests', () => {
+    expect(() => loadConfig({ BCRYPT_COST: '4' })).toThrow(/BCRYPT_COST/);
+    expect(loadConfig({ BCRYPT_COST: '12' }).auth.bcryptCost).toBe(12);
   });
 });

@@ -1,0 +1,26 @@
+import type { Role } from './roles';
+
+/**
+ * Who may do what inside a studio: the one table every studio route is checked against
+ * (server/auth/guards.ts) and the app reads to hide what a role cannot use. A tester's own
+ * records (profile, applications, reports) are checked by ownership in the services as well.
+ */
+export const POLICY = {
+  'studio.read': ['owner', 'coordinator', 'grader', 'tester'],
+  'studio.update': ['owner'],
+  'studio.delete': ['owner'],
+  'members.list': ['owner', 'coordinator'],
+  'members.changeRole': ['owner'],
+  'members.remove': ['owner'],
+  'invitations.list': ['owner', 'coordinator'],
+  // A coordinator may invite graders and testers; only the owner invites coordinators
+  // (checked in the invitations service).
+  'invitations.create': ['owner', 'coordinator'],
+  'invitations.revoke': ['owner', 'coordinator'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Action = keyof typeof POLICY;
+
+export function can(role: Role | null | undefined, action: Action): boolean {
+  return role != null && (POLICY[action] as readonly Role[]).includes(role);
+}

@@ -1,0 +1,33 @@
+import { z } from 'zod';
+
+export const emailSchema = z
+  .string({ error: 'Enter your e-mail address' })
+  .trim()
+  .max(254, 'That e-mail address is too long')
+  .pipe(z.email({ error: 'Enter an e-mail address such as name@example.com' }));
+
+// Length beats character rules for strength; bcrypt reads at most 72 bytes.
+export const passwordSchema = z
+  .string({ error: 'Enter a password' })
+  .min(10, 'Use at least 10 characters')
+  .max(72, 'Use at most 72 characters');
+
+export const nameSchema = z.string({ error: 'Enter your name' }).trim().min(1, 'Enter your name').max(120, 'Use at most 120 characters');
+
+export const signUpSchema = z.object({ name: nameSchema, email: emailSchema, password: passwordSchema });
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email: emailSchema,
+  password: z.string({ error: 'Enter your password' }).min(1, 'Enter your password').max(200),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const resetRequestSchema = z.object({ email: emailSchema });
+export type ResetRequestInput = z.infer<typeof resetRequestSchema>;
+
+export const resetConfirmSchema = z.object({
+  token: z.string({ error: 'The reset link is incomplete' }).min(20, 'The reset link is incomplete').max(200),
+  password: passwordSchema,
+});
+export type ResetConfirmInput = z.infer<typeof resetConfirmSchema>;

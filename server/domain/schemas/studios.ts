@@ -1,0 +1,28 @@
+import { z } from 'zod';
+import { INVITABLE_ROLES, ROLES } from '../roles';
+import { isTimeZone } from '../time-zones';
+import { emailSchema } from './auth';
+
+export const timeZoneSchema = z
+  .string({ error: 'Choose a time zone' })
+  .refine(isTimeZone, 'Choose a time zone from the list, such as Europe/Lisbon or America/Chicago');
+
+export const createStudioSchema = z.object({
+  name: z.string({ error: 'Enter the studio name' }).trim().min(2, 'Use at least 2 characters').max(120, 'Use at most 120 characters'),
+  timeZone: timeZoneSchema.default('UTC'),
+});
+export type CreateStudioInput = z.input<typeof createStudioSchema>;
+
+export const updateStudioSchema = createStudioSchema.partial();
+
+export const inviteSchema = z.object({
+  email: emailSchema,
+  role: z.enum(INVITABLE_ROLES, { error: 'Choose coordinator, grader or tester' }),
+});
+export type InviteInput = z.infer<typeof inviteSchema>;
+
+export const changeRoleSchema = z.object({
+  role: z.enum(ROLES, { error: 'Choose owner, coordinator, grader or tester' }),
+});
+
+export const currentStudioSchema = z.object({ studioId: z.uuid({ error: 'Choose one of your studios' }) });

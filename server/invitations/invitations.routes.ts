@@ -1,0 +1,56 @@
+import { Router } from 'express';
+import type { AppDeps } from '../app';
+import { requireStudio, requireUser } from '../auth/guards';
+import { inviteSchema } from '../domain/schemas/studios';
+import { uuidParam } from '../middleware/uuid-param';
+import { validate } from '../middleware/validate';
+import { serializeInvitation, serializeStudio } from '../serializers';
+import { acceptInvitation, createInvitation, listInvitations, previewInvitation, revokeInvitation } from './invitations.service';
+
+/** Mounted at /api/studios/:studioId/invitations: the studio's side. */
+export function invitationsRouter(deps: AppDeps): Router {
+  const router = Router({ mergeParams: true });
+
+  router.get('/', requireStudio('invitations.list', 'see invitations'), async (req, res) => {
+    res.json((await listInvitations(res.locals.membership!.studioId)).map(serializeInvitation));
+  });
+
+  router.post('/', requireStudio('invitations.create', 'invite people'), validate({ body: inviteSchema }), async (req, res) => {
+    const invitation = await createInvitation(
+      {
+        studioId: res.locals.membership!.studioId,
+        inviter: res.locals.user!,
+        inviterRole: res.locals.membership!.role,
+        input: res.locals.body,
+      },
+      deps,
+    );
+    res.status(201).json(serializeInvitation(invitation));
+  });
+
+  router.delete(
+    '/:invitationId',
+    requireStudio('invitations.revoke', 'withdraw invitations'),
+    uuidParam('invitationId', 'invitation'),
+    async (req, res) => {
+      await revokeInvitation(res.locals.membership!.studioId, String(req.params.invitationId));
+      res.status(204).end();
+    },
+  );
+  return router;
+}
+
+/** Mounted at /api/invitations: the invited person's side, reached through the e-mailed link. */
+export function invitationLinksRouter(): Router {
+  const router = Router();
+
+  router.get('/:token', async (req, res) => {
+    res.json(await previewInvitation(String(req.params.token)));
+  });
+
+  router.post('/:token/accept', requireUser, async (req, res) => {
+    const { studio, role } = await acceptInvitation(String(req.params.token), res.locals.user!);
+    res.json(serializeStudio(studio, role));
+  });
+  return router;
+}

@@ -1,0 +1,51 @@
+/**
+ * Basted's e-mails: each a subject, a plain-text body and a simple HTML body of our own.
+ * Links are absolute, built from PUBLIC_URL.
+ */
+export type MailContent = { subject: string; text: string; html: string };
+
+function escapeHtml(value: string): string {
+  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
+
+function layout(paragraphs: string[], action: { label: string; url: string }, footer: string): string {
+  const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${escapeHtml(p)}</p>`).join('');
+  return (
+    `<div style="font-family:Helvetica,Arial,sans-serif;font-size:15px;line-height:1.5;color:#1F1D1A;max-width:560px">` +
+    `<p style="font-weight:bold;color:#2E5E58;font-size:18px;margin:0 0 16px">Basted</p>${body}` +
+    `<p style="margin:20px 0"><a href="${escapeHtml(action.url)}" style="background:#2E5E58;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(action.label)}</a></p>` +
+    `<p style="color:#5E5850;font-size:13px;margin:0">${escapeHtml(footer)}</p></div>`
+  );
+}
+
+export function passwordResetMail(input: { name: string; link: string; minutes: number }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `Someone asked to reset the password of your Basted account. If it was you, choose a new password within ${input.minutes} minutes:`,
+  ];
+  const footer = 'If you did not ask for this, ignore this e-mail: your password stays as it is. The link works once.';
+  return {
+    subject: 'Reset your Basted password',
+    text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`,
+    html: layout(lines, { label: 'Choose a new password', url: input.link }, footer),
+  };
+}
+
+export function invitationMail(input: {
+  studioName: string;
+  roleLabel: string;
+  inviterName: string;
+  link: string;
+  days: number;
+}): MailContent {
+  const lines = [
+    `${input.inviterName} invites you to join ${input.studioName} on Basted as ${input.roleLabel.toLowerCase()}.`,
+    `Open the invitation within ${input.days} days to accept it. If you have no Basted account yet, you can create one on the way.`,
+  ];
+  const footer = 'If you were not expecting this invitation, you can ignore this e-mail.';
+  return {
+    subject: `Invitation to ${input.studioName} on Basted`,
+    text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`,
+    html: layout(lines, { label: 'Open the invitation', url: input.link }, footer),
+  };
+}

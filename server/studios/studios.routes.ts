@@ -1,0 +1,52 @@
+import { Router } from 'express';
+import type { AppDeps } from '../app';
+import { requireStudio, requireUser } from '../auth/guards';
+import { createStudioSchema, updateStudioSchema } from '../domain/schemas/studios';
+import { invitationsRouter } from '../invitations/invitations.routes';
+import { membersRouter } from '../members/members.routes';
+import { removeMember } from '../members/members.service';
+import { validate } from '../middleware/validate';
+import { serializeStudio } from '../serializers';
+import { createStudio, deleteStudio, getStudio, myStudios, updateStudio } from './studios.service';
+
+export function studiosRouter(deps: AppDeps): Router {
+  const router = Router();
+
+  router.get('/', requireUser, async (_req, res) => {
+    res.json(await myStudios(res.locals.user!));
+  });
+
+  router.post('/', requireUser, validate({ body: createStudioSchema }), async (_req, res) => {
+    const studio = await createStudio(res.locals.user!, res.locals.body);
+    res.status(201).json(serializeStudio(studio, 'owner'));
+  });
+
+  router.get('/:studioId', requireStudio('studio.read', 'see this studio'), async (req, res) => {
+    res.json(serializeStudio(await getStudio(res.locals.membership!.studioId), res.locals.membership!.role));
+  });
+
+  router.patch(
+    '/:studioId',
+    requireStudio('studio.update', 'change the studio'),
+    validate({ body: updateStudioSchema }),
+    async (req, res) => {
+      const studio = await updateStudio(res.locals.membership!.studioId, res.locals.body);
+      res.json(serializeStudio(studio, res.locals.membership!.role));
+    },
+  );
+
+  router.delete('/:studioId', requireStudio('studio.delete', 'delete the studio'), async (req, res) => {
+    await deleteStudio(res.locals.membership!.studioId);
+    res.status(204).end();
+  });
+
+  // Leaving a studio: any member may, except its last owner.
+  router.delete('/:studioId/membership', requireStudio('studio.read', 'leave this studio'), async (req, res) => {
+    await removeMember(res.locals.membership!.studioId, res.locals.membership!.id);
+    res.status(204).end();
+  });
+
+  router.use('/:studioId/members', membersRouter());
+  router.use('/:studioId/invitations', invitationsRouter(deps));
+  return router;
+}
