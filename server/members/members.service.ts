@@ -17,7 +17,8 @@ export async function listMembers(studioId: string) {
 async function findMember(studioId: string, membershipId: string, transaction: Transaction) {
   const membership = await Membership.findOne({
     where: { id: membershipId, studioId },
-    include: [{ model: User, as: 'user' }],
+    // An inner join: PostgreSQL cannot lock the nullable side of an outer one.
+    include: [{ model: User, as: 'user', required: true }],
     transaction,
     lock: transaction.LOCK.UPDATE,
   });

@@ -1,0 +1,151 @@
+import { useState } from 'react';
+import { StyleSheet, TextInput, View } from 'react-native';
+import { colors, fonts, radius, space } from '@/constants/theme';
+import { formatLength, parseLength, type LengthUnit } from '@/server/domain/units';
+import { AppText } from './text';
+
+type Props = {
+  label: string;
+  /** The stored length in millimetres, or null when not given. */
+  valueMm: number | null;
+  /** The person's preferred unit: how the value is shown and what a bare number means. */
+  unit: LengthUnit;
+  /** Called on blur (or submit) with the new length, or null when the field is emptied. Never with a bad value. */
+  onChangeMm: (mm: number | null) => void;
+  /** A message from outside (the form's schema, the server), without the field's name: the label is put in front. */
+  error?: string;
+  /** Signed amounts, e.g. an alteration of −1/2 in. */
+  allowNegative?: boolean;
+  hint?: string;
+  /** For react-hook-form's touched state (Controller's field.onBlur). */
+  onBlur?: () => void;
+  /** Told whenever the typed text becomes unreadable (the message) or readable again (null), so a form can hold back its submit. */
+  onInputError?: (message: string | null) => void;
+};
+
+function shown(valueMm: number | null, unit: LengthUnit): string {
+  return valueMm === null ? '' : formatLength(valueMm, unit);
+}
+
+/**
+ * A length input that takes what people actually type ("1 3/8", "3.5 cm", "35mm" …, see
+ * server/domain/units.ts), reads it when the person leaves the field, and then shows the stored
+ * value back in their unit, so they see what was understood. Works with react-hook-form through a
+ * Controller: value → valueMm, onChange → onChangeMm, onBlur → onBlur.
+ */
+export function MeasurementField({
+  label,
+  valueMm,
+  unit,
+  onChangeMm,
+  error,
+  allowNegative = false,
+  hint,
+  onBlur,
+  onInputError,
+}: Props) {
+  const [text, setText] = useState(() => shown(valueMm, unit));
+  const [inputError, setInputError] = useState<string | null>(null);
+  const [focused, setFocused] = useState(false);
+  // Only text the person has edited is read again: re-reading the shown "1 3/8 in" of a stored
+  // 35 mm would quietly replace it with 34.925 mm on every visit to the field.
+  const [dirty, setDirty] = useState(false);
+
+  // A new value or unit from outside (form reset, unit switch) replaces the text unless the person
+  // is typing. Adjusted during render rather than in an effect so there is no flash of the old text.
+  const [synced, setSynced] = useState({ valueMm, unit });
+  if (synced.valueMm !== valueMm || synced.unit !== unit) {
+    setSynced({ valueMm, unit });
+    if (!focused) {
+      setText(shown(valueMm, unit));
+      setDirty(false);
+      setInputError(null);
+    }
+  }
+
+  function reportInputError(message: string | null) {
+    setInputError(message);
+    onInputError?.(message);
+  }
+
+  function commit() {
+    if (!dirty) return;
+    if (text.trim() === '') {
+      // Emptying a field clears it; whether it may be empty is the form's rule, not this field's.
+      reportInputError(null);
+      setText('');
+      setDirty(false);
+      if (valueMm !== null) onChangeMm(null);
+      return;
+    }
+    const result = parseLength(text, unit, { allowNegative });
+    if (!result.ok) {
+      // Keep what was typed so it can be corrected, and keep the last good value in the form.
+      reportInputError(result.message);
+      return;
+    }
+    reportInputError(null);
+    setText(formatLength(result.mm, unit));
+    setDirty(false);
+    onChangeMm(result.mm);
+  }
+
+  const message = inputError ?? error;
+  const placeholder = unit === 'in' ? (allowNegative ? 'e.g. -1/2 in or 1 3/8' : 'e.g. 1 3/8 in') : allowNegative ? 'e.g. -1.5 cm or 3.5' : 'e.g. 3.5 cm';
+
+  return (
+    <View style={styles.field}>
+      <AppText variant="label">{label}</AppText>
+      {hint ? (
+<AppText variant="caption">{hint}</AppText>
+      ) : null}
+      <TextInput
+        aria-label={label}
+        accessibilityHint={hint}
+        value={text}
+        onChangeText={(next) => {
+          setText(next);
+          setDirty(true);
+        }}
+        onFocus={() => setFocused(true)}
+        onBlur={() => {
+          setFocused(false);
+          commit();
+          onBlur?.();
+        }}
+        onSubmitEditing={commit}
+        placeholder={placeholder}
+        placeholderTextColor={colors.inkMuted}
+        autoCapitalize="none"
+        autoCorrect={false}
+        spellCheck={false}
+        inputMode="text"
+        style={[styles.input, focused && styles.inputFocused, message ? styles.inputInvalid : null]}
+      />
+      {message ? (
+        <AppText role="alert" aria-live="polite" variant="caption" style={styles.error}>
+          {`${label}: ${message}`}
+        </AppText>
+      ) : null}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  field: { gap: space.xs },
+  input: {
+    minHeight: 44,
+    borderWidth: 1,
+    borderColor: colors.line,
+    borderRadius: radius.sm,
+    backgroundColor: colors.surface,
+    paddingHorizontal: space.md,
+    paddingVertical: space.sm,
+    fontFamily: fonts.regular,
+    fontSize: 16,
+    color: colors.ink,
+  },
+  inputFocused: { borderColor: colors.focus, borderWidth: 2 },
+  inputInvalid: { borderColor: colors.warning, borderWidth: 2 },
+  error: { color: colors.warning, fontFamily: fonts.medium },
+});

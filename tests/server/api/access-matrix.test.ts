@@ -1,0 +1,153 @@
+import request from 'supertest';
+import { Invitation } from '../../../db/models';
+import { newSecretToken } from '../../../server/auth/secret-token';
+import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
+import { registeredRoutes } from '../../support/routes';
+import { buildTestApp, type TestApp } from '../../support/test-app';
+
+/**
+ * Every API route, called as each kind of caller, against the policy: allowed callers get
+ * past the access checks (any answer but 401/403/404); the rest are refused with 401 when
+ * anonymous, 404 when not a member of the studio in the URL, 403 when their role may not.
+ * A route registered without a row here fails the first test: extend the table with it.
+ */
+const PERSONAS = ['anonymous', 'testerHere', 'testerElsewhere', 'grader', 'coordinator', 'owner', 'memberElsewhere'] as const;
+type Persona = (typeof PERSONAS)[number];
+
+type Ctx = StudioWorld & { persona: Persona; inviteToken: string; invitationId: string };
+type Row = { allow: readonly Persona[]; call: (ctx: Ctx) => { path: string; body?: object } };
+
+const EVERYONE = PERSONAS;
+const SIGNED_IN = PERSONAS.filter((p) => p !== 'anonymous');
+const MEMBERS_HERE = ['testerHere', 'grader', 'coordinator', 'owner'] as const;
+const MANAGERS = ['coordinator', 'owner'] as const;
+const OWNER = ['owner'] as const;
+
+const MATRIX: Record<string, Row> = {
+  'GET /api/health': { allow: EVERYONE, call: () => ({ path: '/api/health' }) },
+  'POST /api/auth/sign-up': {
+    allow: EVERYONE,
+    call: () => ({ path: '/api/auth/sign-up', body: { name: 'New', email: uniqueEmail('m'), password: 'a long password' } }),
+  },
+  'POST /api/auth/sign-in': {
+    allow: EVERYONE,
+    call: (c) => ({ path: '/api/auth/sign-in', body: { email: c.users.grader.email, password: TEST_PASSWORD } }),
+  },
+  'POST /api/auth/sign-out': { allow: EVERYONE, call: () => ({ path: '/api/auth/sign-out' }) },
+  'GET /api/auth/session': { allow: SIGNED_IN, call: () => ({ path: '/api/auth/session' }) },
+  'PUT /api/auth/session/studio': {
+    allow: MEMBERS_HERE,
+    call: (c) => ({ path: '/api/auth/session/studio', body: { studioId: c.studio.id } }),
+  },
+  'POST /api/auth/password-reset': {
+    allow: EVERYONE,
+    call: () => ({ path: '/api/auth/password-reset', body: { email: uniqueEmail('nobody') } }),
+  },
+  'POST /api/auth/password-reset/confirm': {
+    allow: EVERYONE,
+    call: () => ({ path: '/api/auth/password-reset/confirm', body: { token: 'x'.repeat(43), password: 'a long password' } }),
+  },
+  'GET /api/studios': { allow: SIGNED_IN, call: () => ({ path: '/api/studios' }) },
+  'POST /api/studios': { allow: SIGNED_IN, call: () => ({ path: '/api/studios', body: { name: 'Another studio' } }) },
+  'GET /api/studios/:studioId': { allow: MEMBERS_HERE, call: (c) => ({ path: `/api/studios/${c.studio.id}` }) },
+  'PATCH /api/studios/:studioId': {
+    allow: OWNER,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}`, body: { name: 'Renamed studio' } }),
+  },
+  'DELETE /api/studios/:studioId': { allow: OWNER, call: (c) => ({ path: `/api/studios/${c.studio.id}` }) },
+  'DELETE /api/studios/:studioId/membership': {
+    allow: MEMBERS_HERE,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/membership` }),
+  },
+  'GET /api/studios/:studioId/members': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/members` }) },
+  'PATCH /api/studios/:studioId/members/:membershipId': {
+    allow: OWNER,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/members/${c.memberships.tester.id}`, body: { role: 'grader' } }),
+  },
+  'DELETE /api/studios/:studioId/members/:membershipId': {
+    allow: OWNER,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/members/${c.memberships.tester.id}` }),
+  },
+  'GET /api/studios/:studioId/invitations': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/invitations` }),
+  },
+  'POST /api/studios/:studioId/invitations': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/invitations`, body: { email: uniqueEmail('invitee'), role: 'tester' } }),
+  },
+  'DELETE /api/studios/:studioId/invitations/:invitationId': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/invitations/${c.invitationId}` }),
+  },
+  // The link itself is the secret: anyone holding it may read what it offers.
+  'GET /api/invitations/:token': { allow: EVERYONE, call: (c) => ({ path: `/api/invitations/${c.inviteToken}` }) },
+  'POST /api/invitations/:token/accept': {
+    allow: SIGNED_IN,
+    call: (c) => ({ path: `/api/invitations/${c.inviteToken}/accept` }),
+  },
+};
+
+function userOf(world: StudioWorld, persona: Persona) {
+  switch (persona) {
+    case 'anonymous':
+      return null;
+    case 'testerHere':
+      return world.users.tester;
+    case 'testerElsewhere':
+      return world.users.otherTester;
+    case 'memberElsewhere':
+      return world.users.otherOwner;
+    default:
+      return world.users[persona];
+  }
+}
+
+function expectedDenial(persona: Persona): number {
+  if (persona === 'anonymous') return 401;
+  return (MEMBERS_HERE as readonly string[]).includes(persona) ? 403 : 404;
+}
+
+describe('access matrix', () => {
+  let t: TestApp;
+  beforeAll(() => {
+    t = buildTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('lists every registered API route, and no route that is not registered', () => {
+    const routes = registeredRoutes(t.app);
+    expect(routes.filter((r) => !(r in MATRIX))).toEqual([]);
+    expect(Object.keys(MATRIX).filter((r) => !routes.includes(r))).toEqual([]);
+  });
+
+  describe.each(Object.entries(MATRIX))('%s', (route, row) => {
+    it.each(PERSONAS)('as %s', async (persona) => {
+      // A fresh world for every call: some allowed calls delete what the next would need.
+      const world = await createStudioWorld();
+      const user = userOf(world, persona);
+      const { token, hash } = newSecretToken();
+      const invitation = await Invitation.create({
+        studioId: world.studio.id,
+        email: user?.email ?? (await createUser('invitee')).email,
+        role: 'tester',
+        tokenHash: hash,
+        invitedById: world.users.owner.id,
+        expiresAt: new Date(Date.now() + 86_400_000),
+      });
+      const { path, body } = row.call({ ...world, persona, inviteToken: token, invitationId: invitation.id });
+      const [method] = route.split(' ');
+      let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](path);
+      if (user) req = req.set('Authorization', bearer(user, t.config));
+      const res = await (body ? req.send(body) : req);
+
+      if (row.allow.includes(persona)) {
+        expect({ persona, status: res.status, denied: [401, 403, 404].includes(res.status) }).toMatchObject({ denied: false });
+        expect(res.status).toBeLessThan(500);
+      } else {
+        expect({ persona, status: res.status }).toEqual({ persona, status: expectedDenial(persona) });
+        expect(res.body.error.code).toEqual(expect.any(String));
+      }
+    });
+  });
+});
