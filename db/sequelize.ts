@@ -1,7 +1,15 @@
 import { Sequelize } from 'sequelize';
 import { initModels } from './models';
 
-export type SequelizeOptions = { poolMax?: number; logging?: boolean };
+export type SequelizeOptions = {
+  poolMax?: number;
+  logging?: boolean;
+  /**
+   * Models are module-level classes bound to one instance; a second instance that registers them
+   * takes them over. Pass false for an extra connection that must leave them alone.
+   */
+  registerModels?: boolean;
+};
 
 /** One Sequelize instance with every model registered and associated. */
 export function createSequelize(databaseUrl: string, options: SequelizeOptions = {}): Sequelize {
@@ -11,6 +19,6 @@ export function createSequelize(databaseUrl: string, options: SequelizeOptions =
     pool: { max: options.poolMax ?? 10, min: 0, idle: 10_000 },
     define: { underscored: true },
   });
-  initModels(sequelize);
+  if (options.registerModels !== false) initModels(sequelize);
   return sequelize;
 }

@@ -12,6 +12,7 @@ import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { invitationLinksRouter } from './invitations/invitations.routes';
+import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
 import { studiosRouter } from './studios/studios.routes';
 
@@ -31,6 +32,7 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/auth', authRouter(deps));
   api.use('/studios', studiosRouter(deps));
   api.use('/invitations', invitationLinksRouter());
+  api.use('/me', profileRouter());
   api.use(apiNotFound);
   return api;
 }

@@ -15,13 +15,38 @@ export type TestApp = {
   close(): Promise<void>;
 };
 
+// One pool per test file for the run's database, shared by every app the file builds: the
+// models are bound to a single Sequelize instance (see db/sequelize.ts).
+let shared: { sequelize: Sequelize; users: number } | undefined;
+
+function acquireSequelize(url: string): { sequelize: Sequelize; release(): Promise<void> } {
+  if (url !== process.env.DATABASE_URL) {
+    // Another database (e.g. one that is down): its own pool, models left alone.
+    const sequelize = createSequelize(url, { poolMax: 2, registerModels: false });
+    return { sequelize, release: () => sequelize.close() };
+  }
+  shared ??= { sequelize: createSequelize(url, { poolMax: 5 }), users: 0 };
+  shared.users += 1;
+  const mine = shared;
+  return {
+    sequelize: mine.sequelize,
+    async release() {
+      mine.users -= 1;
+      if (mine.users === 0) {
+        shared = undefined;
+        await mine.sequelize.close();
+      }
+    },
+  };
+}
+
 /**
  * The real app against the run's own database and the running local fakes, built exactly as
  * server/index.ts builds it. `env` overrides single variables (e.g. a dead SMTP port).
  */
 export function buildTestApp(env: Record<string, string> = {}): TestApp {
   const config = loadConfig({ ...process.env, ...env });
-  const sequelize = createSequelize(config.databaseUrl, { poolMax: 5 });
+  const { sequelize, release } = acquireSequelize(config.databaseUrl);
   const storage = createStorage(config.s3);
   const mailer = createMailer(config.smtp);
   const app = createApp({ config, sequelize, storage, mailer });
@@ -34,7 +59,7 @@ export function buildTestApp(env: Record<string, string> = {}): TestApp {
     async close() {
       storage.close();
       mailer.close();
-      await sequelize.close();
+      await release();
     },
   };
 }

@@ -86,6 +86,11 @@ const MATRIX: Record<string, Row> = {
     allow: SIGNED_IN,
     call: (c) => ({ path: `/api/invitations/${c.inviteToken}/accept` }),
   },
+  'GET /api/me/profile': { allow: SIGNED_IN, call: () => ({ path: '/api/me/profile' }) },
+  'PATCH /api/me/profile': {
+    allow: SIGNED_IN,
+    call: () => ({ path: '/api/me/profile', body: { lengthUnit: 'cm', measurementsMm: { hip: 1020 } } }),
+  },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {
