@@ -8,6 +8,8 @@ import { Slot, SplashScreen } from 'expo-router';
 import { StatusBar } from 'expo-status-bar';
 import { useEffect } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
+import { SWRConfig } from 'swr';
+import { fetcher } from '@/hooks/api';
 
 // Hold the first paint until the bundled fonts are in, so no text flashes in a fallback face.
 SplashScreen.preventAutoHideAsync().catch(() => {});
@@ -30,9 +32,11 @@ export default function RootLayout() {
   if (!loaded && !error) return null;
 
   return (
-    <SafeAreaProvider>
-      <StatusBar style="dark" />
-      <Slot />
-    </SafeAreaProvider>
+    <SWRConfig value={{ fetcher, shouldRetryOnError: false }}>
+      <SafeAreaProvider>
+        <StatusBar style="dark" />
+        <Slot />
+      </SafeAreaProvider>
+    </SWRConfig>
   );
 }

@@ -1,11 +1,13 @@
 import { Slot } from 'expo-router';
-import { AppShell } from '@/components/layout/app-shell';
-import { STUDIO_NAV } from '@/components/layout/nav-items';
+import { RequireSession } from '@/components/layout/require-session';
+import { SignedInShell } from '@/components/layout/signed-in-shell';
 
 export default function StudioLayout() {
   return (
-    <AppShell area="Studio" items={STUDIO_NAV}>
-      <Slot />
-    </AppShell>
+    <RequireSession staffOnly>
+      <SignedInShell>
+        <Slot />
+      </SignedInShell>
+    </RequireSession>
   );
 }

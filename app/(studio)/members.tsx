@@ -1,15 +1,165 @@
-import { PlannedSection } from '@/components/ui/planned-section';
+import { zodResolver } from '@hookform/resolvers/zod';
+import dayjs from 'dayjs';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import { StyleSheet, View } from 'react-native';
+import { applyApiError } from '@/components/forms/api-errors';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { ChoiceGroup } from '@/components/ui/choice-group';
+import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
+import { Empty, LoadError, Loading } from '@/components/ui/states';
+import { AppText } from '@/components/ui/text';
+import { TextField } from '@/components/ui/text-field';
+import { colors, space } from '@/constants/theme';
+import { useSession } from '@/hooks/use-session';
+import { changeRole, invite, removeMember, useInvitations, useMembers, withdrawInvitation, type Member } from '@/hooks/use-studio';
+import { can } from '@/server/domain/policy';
+import { INVITABLE_ROLES, ROLE_LABELS, ROLES, type InvitableRole, type Role } from '@/server/domain/roles';
+import { inviteSchema, type InviteInput } from '@/server/domain/schemas/studios';
+
+function InviteForm({ studioId, isOwner }: { studioId: string; isOwner: boolean }) {
+  const [formError, setFormError] = useState<string | null>(null);
+  const [sent, setSent] = useState<string | null>(null);
+  const { control, handleSubmit, setError, formState, reset } = useForm<InviteInput>({
+    resolver: zodResolver(inviteSchema),
+    defaultValues: { email: '', role: 'tester' },
+  });
+  const roles = INVITABLE_ROLES.filter((r) => isOwner || r !== 'coordinator');
+  const submit = handleSubmit(async (values) => {
+    setFormError(null);
+    setSent(null);
+    try {
+      await invite(studioId, values);
+      setSent(`Invitation sent to ${values.email}.`);
+      reset({ email: '', role: values.role });
+    } catch (error) {
+      setFormError(applyApiError(error, setError, ['email', 'role']));
+    }
+  });
+  return (
+    <Card title="Invite someone">
+      {sent ? <Notice tone="success">{sent}</Notice> : null}
+      {formError ? <Notice tone="error">{formError}</Notice> : null}
+      <Controller
+        control={control}
+        name="email"
+        render={({ field, fieldState }) => (
+          <TextField
+            label="E-mail"
+            value={field.value}
+            onChangeText={field.onChange}
+            onBlur={field.onBlur}
+            error={fieldState.error?.message}
+            inputMode="email"
+            autoCapitalize="none"
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="role"
+        render={({ field, fieldState }) => (
+          <ChoiceGroup<InvitableRole>
+            label="Role"
+            options={roles.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
+            value={field.value}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      <Button label="Send invitation" busyLabel="Sending…" busy={formState.isSubmitting} onPress={submit} />
+    </Card>
+  );
+}
+
+function MemberRow({ member, studioId, canEdit, isSelf }: { member: Member; studioId: string; canEdit: boolean; isSelf: boolean }) {
+  const [busy, setBusy] = useState(false);
+  const [failure, setFailure] = useState<string | null>(null);
+  const act = async (work: () => Promise<void>) => {
+    setBusy(true);
+    setFailure(null);
+    try {
+      await work();
+    } catch (error) {
+      setFailure(error instanceof Error ? error.message : 'That did not work.');
+    } finally {
+      setBusy(false);
+    }
+  };
+  return (
+    <View style={styles.row} aria-label={`${member.name}, ${ROLE_LABELS[member.role]}`}>
+      <AppText variant="heading">{member.name}</AppText>
+      <AppText variant="caption">{`${member.email} · ${ROLE_LABELS[member.role]}${isSelf ? ' · you' : ''}`}</AppText>
+      {failure ? <Notice tone="error">{failure}</Notice> : null}
+      {canEdit ? (
+        <>
+          <ChoiceGroup<Role>
+            label={`Role of ${member.name}`}
+            options={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
+            value={member.role}
+            onChange={(role) => role !== member.role && act(() => changeRole(studioId, member.id, role))}
+          />
+          {!isSelf ? (
+            <Button
+              label="Remove from studio"
+              accessibleLabel={`Remove ${member.name} from the studio`}
+              tone="danger"
+              busy={busy}
+              busyLabel="Removing…"
+              onPress={() => act(() => removeMember(studioId, member.id))}
+            />
+          ) : null}
+        </>
+      ) : null}
+    </View>
+  );
+}
 
 export default function MembersScreen() {
+  const { session, currentStudio } = useSession();
+  const studioId = currentStudio?.id;
+  const members = useMembers(studioId);
+  const invitations = useInvitations(studioId);
+  const role = currentStudio?.role;
+  const isOwner = can(role, 'members.changeRole');
+  const open = (invitations.data ?? []).filter((i) => i.state === 'open');
+
   return (
-    <Screen title="Members" intro="Who works in this studio, and in which role.">
-      <PlannedSection
-        items={[
-          "Owner, coordinators, graders and testers",
-          "Invitations by e-mail",
-        ]}
-      />
+    <Screen title="Members" intro="Who works in this studio and in which role. Testers see only their own trials and reports.">
+      {studioId && can(role, 'invitations.create') ? <InviteForm studioId={studioId} isOwner={isOwner} /> : null}
+
+      <Card title="Open invitations">
+        {invitations.error ? <LoadError error={invitations.error} onRetry={() => invitations.mutate()} /> : null}
+        {!invitations.data && !invitations.error ? <Loading /> : null}
+        {invitations.data && open.length === 0 ? <Empty>No invitation is waiting for an answer.</Empty> : null}
+        {open.map((i) => (
+          <View key={i.id} style={styles.row}>
+            <AppText>{`${i.email} · ${ROLE_LABELS[i.role]}`}</AppText>
+            <AppText variant="caption">{`Open until ${dayjs(i.expiresAt).format('D MMM YYYY')}`}</AppText>
+            <Button
+              label="Withdraw"
+              accessibleLabel={`Withdraw the invitation to ${i.email}`}
+              tone="quiet"
+              onPress={() => studioId && withdrawInvitation(studioId, i.id)}
+            />
+          </View>
+        ))}
+      </Card>
+
+      <Card title="Members">
+        {members.error ? <LoadError error={members.error} onRetry={() => members.mutate()} /> : null}
+        {!members.data && !members.error ? <Loading /> : null}
+        {members.data?.map((m) => (
+          <MemberRow key={m.id} member={m} studioId={studioId!} canEdit={isOwner} isSelf={m.userId === session?.user.id} />
+        ))}
+      </Card>
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  row: { gap: space.xs, paddingVertical: space.sm, borderTopWidth: 1, borderTopColor: colors.line },
+});

@@ -1,11 +1,13 @@
 import { Slot } from 'expo-router';
-import { AppShell } from '@/components/layout/app-shell';
-import { TESTER_NAV } from '@/components/layout/nav-items';
+import { RequireSession } from '@/components/layout/require-session';
+import { SignedInShell } from '@/components/layout/signed-in-shell';
 
 export default function TesterLayout() {
   return (
-    <AppShell area="Tester" items={TESTER_NAV}>
-      <Slot />
-    </AppShell>
+    <RequireSession>
+      <SignedInShell>
+        <Slot />
+      </SignedInShell>
+    </RequireSession>
   );
 }

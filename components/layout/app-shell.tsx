@@ -8,18 +8,35 @@ import { colors, fonts, space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
 import { isActive, type NavItem } from './nav-items';
 
-type Props = { area: string; items: NavItem[]; children: ReactNode };
+type Props = {
+  area: string;
+  items: NavItem[];
+  /** A short word beside the area, e.g. "Read-only" for a grader. */
+  badge?: string;
+  /** Shown at the foot of the side navigation, and at the end of the phone header. */
+  footer?: ReactNode;
+  children: ReactNode;
+};
 
-function Brand({ area, compact = false }: { area: string; compact?: boolean }) {
+function Brand({ area, badge, compact = false }: { area: string; badge?: string; compact?: boolean }) {
   return (
-    <Link href="/" asChild>
-      <Pressable role="link" aria-label="Basted home" style={compact ? styles.brandCompact : styles.brand}>
-        <AppText style={styles.brandName}>Basted</AppText>
-        <AppText variant="caption" style={styles.brandArea}>
+    <View style={compact ? styles.brandCompact : styles.brand}>
+      <Link href="/" asChild>
+        <Pressable role="link" aria-label="Basted home">
+          <AppText style={styles.brandName}>Basted</AppText>
+        </Pressable>
+      </Link>
+      <View style={styles.areaRow}>
+        <AppText variant="caption" style={styles.brandArea} numberOfLines={1}>
           {area}
         </AppText>
-      </Pressable>
-    </Link>
+        {badge ? (
+          <AppText variant="caption" style={styles.badge} numberOfLines={1}>
+            {badge}
+          </AppText>
+        ) : null}
+      </View>
+    </View>
   );
 }
 
@@ -28,7 +45,7 @@ function Brand({ area, compact = false }: { area: string; compact?: boolean }) {
  * navigation on a window at least 900 px wide.
  * (Link asChild passes its style to the child through a slot that takes flat styles only.)
  */
-export function AppShell({ area, items, children }: Props) {
+export function AppShell({ area, items, badge, footer, children }: Props) {
   const wide = useIsWide();
   const pathname = usePathname();
   const insets = useSafeAreaInsets();
@@ -36,8 +53,8 @@ export function AppShell({ area, items, children }: Props) {
   if (wide) {
     return (
       <View style={styles.wideRoot}>
-        <View style={styles.side} role="navigation" aria-label={`${area} navigation`}>
-          <Brand area={area} />
+        <View style={styles.side} role="navigation" aria-label="Sections">
+          <Brand area={area} badge={badge} />
           {items.map((item) => {
             const active = isActive(pathname, item.href);
             return (
@@ -53,6 +70,7 @@ export function AppShell({ area, items, children }: Props) {
               </Link>
             );
           })}
+          {footer ? <View style={styles.sideFooter}>{footer}</View> : null}
         </View>
         <View style={styles.main}>{children}</View>
       </View>
@@ -62,13 +80,14 @@ export function AppShell({ area, items, children }: Props) {
   return (
     <View style={[styles.phoneRoot, { paddingTop: insets.top }]}>
       <View style={styles.header}>
-        <Brand area={area} compact />
+        <Brand area={area} badge={badge} compact />
+        {footer}
       </View>
       <View style={styles.main}>{children}</View>
       <View
         style={[styles.tabs, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
         role="navigation"
-        aria-label={`${area} navigation`}
+        aria-label="Sections"
       >
         {items.map((item) => {
           const active = isActive(pathname, item.href);
@@ -112,6 +131,9 @@ const styles = StyleSheet.create({
   main: { flex: 1 },
   phoneRoot: { flex: 1, backgroundColor: colors.paper },
   header: {
+    flexDirection: 'row',
+    alignItems: 'center',
+    justifyContent: 'space-between',
     borderBottomWidth: 1,
     borderBottomColor: colors.line,
     backgroundColor: colors.surfaceSunken,
@@ -119,9 +141,19 @@ const styles = StyleSheet.create({
     paddingVertical: space.sm,
   },
   brand: { paddingHorizontal: space.md, paddingVertical: space.sm, marginBottom: space.sm },
-  brandCompact: { flexDirection: 'row', alignItems: 'baseline', gap: space.sm, minHeight: 44, paddingTop: space.sm },
+  brandCompact: { flex: 1, flexDirection: 'row', alignItems: 'baseline', gap: space.sm, minHeight: 44, paddingTop: space.sm },
+  areaRow: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexShrink: 1 },
+  badge: {
+    color: colors.thread,
+    borderWidth: 1,
+    borderColor: colors.thread,
+    borderRadius: 4,
+    paddingHorizontal: 6,
+    fontFamily: fonts.medium,
+  },
+  sideFooter: { marginTop: 'auto', paddingTop: space.lg },
   brandName: { fontFamily: fonts.bold, fontSize: 22, color: colors.thread, letterSpacing: 0.3 },
-  brandArea: { marginTop: 2 },
+  brandArea: { marginTop: 2, flexShrink: 1 },
   tabs: {
     flexDirection: 'row',
     borderTopWidth: 1,

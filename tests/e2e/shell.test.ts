@@ -1,5 +1,6 @@
 import path from 'node:path';
-import type { Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
+import { addMember, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 
 const PHONE = { width: 390, height: 844 };
@@ -19,32 +20,26 @@ async function fontOf(page: Page, text: string): Promise<string> {
 
 describe('the web app in Chromium', () => {
   let h: BrowserHarness;
-  const pageErrors: string[] = [];
+  let owner: BrowserContext;
 
   beforeAll(async () => {
     h = await startBrowserHarness();
+    // An owner of a studio, signed in through the API (this suite is about the shell).
+    const user = await createUser('shell-owner');
+    await addMember(await createStudio('Shell Test Studio'), user, 'owner');
+    owner = await h.newContext();
+    const res = await owner.request.post('/api/auth/sign-in', { data: { email: user.email, password: TEST_PASSWORD } });
+    expect(res.status()).toBe(200);
   });
   afterAll(() => h?.close());
-
-  async function open(viewport: { width: number; height: number }, url: string): Promise<Page> {
-    const page = await h.context.newPage();
-    await page.setViewportSize(viewport);
-    page.on('pageerror', (e) => pageErrors.push(String(e)));
-    page.on('console', (m) => {
-      if (m.type() === 'error') pageErrors.push(m.text());
-    });
-    await page.goto(`${h.baseUrl}${url}`);
-    return page;
-  }
-
   afterEach(() => {
     // A CSP violation or a render error would show up here.
-    expect(pageErrors).toEqual([]);
-    pageErrors.length = 0;
+    expect(h.errors).toEqual([]);
   });
 
   it('on a phone, shows the start page in the shipped font and navigates into the studio and between its sections', async () => {
-    const page = await open(PHONE, '/');
+    const page = await h.newPage(owner, PHONE);
+    await page.goto('/');
     await page.getByRole('heading', { name: 'Basted', exact: true }).waitFor();
 
     const faces = await loadedFaces(page);
@@ -53,12 +48,12 @@ describe('the web app in Chromium', () => {
     expect(await fontOf(page, 'Run a studio')).toContain('Inter_600SemiBold');
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'phone-home.png'), fullPage: true });
 
-    await page.getByRole('link', { name: 'Studio' }).click();
+    await page.getByRole('link', { name: 'Studio', exact: true }).click();
     await page.getByRole('heading', { name: 'Trials' }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/trials');
 
     // On a phone the sections sit in a bar along the bottom of the window.
-    const nav = page.getByRole('navigation', { name: 'Studio navigation' });
+    const nav = page.getByRole('navigation', { name: 'Sections' });
     const box = (await nav.boundingBox())!;
     expect(box.width).toBeGreaterThan(PHONE.width * 0.9);
     expect(box.y + box.height).toBeGreaterThan(PHONE.height - 4);
@@ -71,15 +66,17 @@ describe('the web app in Chromium', () => {
   });
 
   it('on a wide window, shows a side navigation and moves between sections', async () => {
-    const page = await open(WIDE, '/trials');
+    const page = await h.newPage(owner, WIDE);
+    await page.goto('/trials');
     await page.getByRole('heading', { name: 'Trials' }).waitFor();
 
-    const nav = page.getByRole('navigation', { name: 'Studio navigation' });
+    const nav = page.getByRole('navigation', { name: 'Sections' });
     const box = (await nav.boundingBox())!;
     expect(box.x).toBe(0);
     expect(box.width).toBeLessThan(WIDE.width / 3);
     expect(box.height).toBeGreaterThan(WIDE.height * 0.9);
     expect(await fontOf(page, 'Trials')).toMatch(/Inter_/);
+    await page.getByText('Shell Test Studio · Owner').waitFor();
 
     await nav.getByRole('link', { name: 'Findings' }).click();
     await page.getByRole('heading', { name: 'Findings' }).waitFor();
@@ -87,19 +84,30 @@ describe('the web app in Chromium', () => {
     expect(await nav.getByRole('link', { name: 'Findings' }).getAttribute('aria-current')).toBe('page');
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'wide-findings.png') });
 
-    await page.goto(`${h.baseUrl}/`);
+    await page.goto('/');
     await page.getByRole('heading', { name: 'Basted', exact: true }).waitFor();
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'wide-home.png') });
     await page.close();
   });
 
   it('opens a deep link to a public call directly, and shows a not-found page for an unknown address', async () => {
-    const page = await open(PHONE, '/call/linen-trousers-spring');
+    const visitor = await h.newContext();
+    const page = await h.newPage(visitor, PHONE);
+    await page.goto('/call/linen-trousers-spring');
     await page.getByRole('heading', { name: 'Call for testers' }).waitFor();
     expect(await page.getByText('Trial: linen-trousers-spring').count()).toBe(1);
 
-    await page.goto(`${h.baseUrl}/no/such/page`);
+    await page.goto('/no/such/page');
     await page.getByRole('heading', { name: 'Page not found' }).waitFor();
-    await page.close();
+    await visitor.close();
+  });
+
+  it('sends a signed-out visitor from a studio page to sign-in', async () => {
+    const visitor = await h.newContext();
+    const page = await h.newPage(visitor, PHONE);
+    await page.goto('/members');
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    expect(new URL(page.url()).searchParams.get('next')).toBe('/members');
+    await visitor.close();
   });
 });

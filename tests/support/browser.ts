@@ -1,32 +1,45 @@
-import { mkdtemp, mkdir, rm } from 'node:fs/promises';
-import type { Server } from 'node:http';
+import { mkdir } from 'node:fs/promises';
+import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
-import os from 'node:os';
 import path from 'node:path';
-import { chromium, type BrowserContext } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from './test-app';
 
 export const SCREENSHOT_DIR = path.resolve(__dirname, '../../.artifacts/screenshots');
 
 export type BrowserHarness = {
   baseUrl: string;
-  context: BrowserContext;
+  t: TestApp;
+  browser: Browser;
+  /** A separate browser profile: its own cookies, as a second person on another device. */
+  newContext(): Promise<BrowserContext>;
+  /** A page that records page errors and console errors into `errors`. */
+  newPage(context: BrowserContext, viewport: { width: number; height: number }): Promise<Page>;
+  errors: string[];
   close(): Promise<void>;
 };
 
+async function freePort(): Promise<number> {
+  const probe = createServer();
+  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
+  const { port } = probe.address() as AddressInfo;
+  await new Promise<void>((resolve) => probe.close(() => resolve()));
+  return port;
+}
+
 /**
- * The real server with the exported web app (dist/, built by npm test's set-up) on a free
- * loopback port, and Debian's Chromium driven by playwright-core in a fresh profile.
+ * The real server with the exported web app (dist/, built by npm test's set-up) on a loopback
+ * port, its mail links pointing at that port, and Debian's Chromium driven by playwright-core.
  */
-export async function startBrowserHarness(): Promise<BrowserHarness & { t: TestApp }> {
-  const t = buildTestApp({ WEB_DIST: path.resolve(__dirname, '../../dist') });
+export async function startBrowserHarness(): Promise<BrowserHarness> {
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const t = buildTestApp({ WEB_DIST: path.resolve(__dirname, '../../dist'), PUBLIC_URL: baseUrl });
   const server: Server = await new Promise((resolve) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
+    const s = t.app.listen(port, '127.0.0.1', () => resolve(s));
   });
-  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  const profile = await mkdtemp(path.join(os.tmpdir(), 'basted-chromium-'));
   await mkdir(SCREENSHOT_DIR, { recursive: true });
-  const context = await chromium.launchPersistentContext(profile, {
+  const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     // No network here: without these flags Chromium keeps trying to reach its own services.
@@ -40,15 +53,27 @@ export async function startBrowserHarness(): Promise<BrowserHarness & { t: TestA
       '--disable-sync',
     ],
   });
+  const errors: string[] = [];
   return {
-    t,
     baseUrl,
-    context,
+    t,
+    browser,
+    errors,
+    newContext: () => browser.newContext({ baseURL: baseUrl }),
+    async newPage(context, viewport) {
+      const page = await context.newPage();
+      await page.setViewportSize(viewport);
+      page.on('pageerror', (e) => errors.push(String(e)));
+      page.on('console', (m) => {
+        // A refused request is the app working as designed (e.g. 401 before sign-in).
+        if (m.type() === 'error' && !/status of (401|403|404|409)/.test(m.text())) errors.push(m.text());
+      });
+      return page;
+    },
     async close() {
-      await context.close();
+      await browser.close();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await t.close();
-      await rm(profile, { recursive: true, force: true });
     },
   };
 }

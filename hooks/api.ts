@@ -1,0 +1,42 @@
+/**
+ * The one way the app talks to the API: same-origin JSON (the session cookie rides along),
+ * and every non-2xx answer turned into an ApiError carrying the server's code and per-field
+ * messages.
+ */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+    this.name = 'ApiError';
+  }
+}
+
+type Options = { method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE'; body?: unknown };
+
+export async function api<T>(path: string, { method = 'GET', body }: Options = {}): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      method,
+      credentials: 'same-origin',
+      headers: body === undefined ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+  } catch {
+    throw new ApiError(0, 'offline', 'Basted cannot be reached. Check your connection and try again.');
+  }
+  if (res.status === 204) return undefined as T;
+  const data = await res.json().catch(() => null);
+  if (!res.ok) {
+    const error = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null)?.error;
+    throw new ApiError(res.status, error?.code ?? 'error', error?.message ?? `The server answered ${res.status}.`, error?.fields);
+  }
+  return data as T;
+}
+
+/** SWR's fetcher: keys are API paths. */
+export const fetcher = <T>(path: string) => api<T>(path);
