@@ -130,6 +130,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
                     label={m.label}
                     hint={m.hint}
                     unit={unit}
+                    placeholder={unit === 'in' ? 'e.g. 38 1/2' : 'e.g. 97.8 cm'}
                     valueMm={field.value ?? null}
                     onChangeMm={field.onChange}
                     onBlur={field.onBlur}

@@ -17,6 +17,8 @@ type Props = {
   /** Signed amounts, e.g. an alteration of −1/2 in. */
   allowNegative?: boolean;
   hint?: string;
+  /** Overrides the example shown in the empty field (the default suits a small amount). */
+  placeholder?: string;
   /** For react-hook-form's touched state (Controller's field.onBlur). */
   onBlur?: () => void;
   /** Told whenever the typed text becomes unreadable (the message) or readable again (null), so a form can hold back its submit. */
@@ -41,6 +43,7 @@ export function MeasurementField({
   error,
   allowNegative = false,
   hint,
+  placeholder: placeholderOverride,
   onBlur,
   onInputError,
 }: Props) {
@@ -91,7 +94,7 @@ export function MeasurementField({
   }
 
   const message = inputError ?? error;
-  const placeholder = unit === 'in' ? (allowNegative ? 'e.g. -1/2 in or 1 3/8' : 'e.g. 1 3/8 in') : allowNegative ? 'e.g. -1.5 cm or 3.5' : 'e.g. 3.5 cm';
+  const placeholder = placeholderOverride ?? (unit === 'in' ? (allowNegative ? 'e.g. -1/2 in or 1 3/8' : 'e.g. 1 3/8 in') : allowNegative ? 'e.g. -1.5 cm or 3.5' : 'e.g. 3.5 cm');
 
   return (
     <View style={styles.field}>
