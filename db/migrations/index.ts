@@ -2,6 +2,7 @@ import type { MigrationFn } from 'umzug';
 import type { QueryInterface } from 'sequelize';
 import * as accounts from './0001-accounts';
 import * as profiles from './0002-profiles-and-invitations';
+import * as patterns from './0003-patterns';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -9,4 +10,5 @@ export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: M
 export const migrations: Migration[] = [
   { name: '0001-accounts', ...accounts },
   { name: '0002-profiles-and-invitations', ...profiles },
+  { name: '0003-patterns', ...patterns },
 ];

@@ -1,12 +1,16 @@
 import type { Sequelize } from 'sequelize';
+import { FabricNeed } from './fabric-need';
 import { Invitation } from './invitation';
 import { Membership } from './membership';
 import { PasswordReset } from './password-reset';
+import { Pattern } from './pattern';
+import { PatternSize } from './pattern-size';
+import { PatternVariant } from './pattern-variant';
 import { Studio } from './studio';
 import { TesterProfile } from './tester-profile';
 import { User } from './user';
 
-export { Invitation, Membership, PasswordReset, Studio, TesterProfile, User };
+export { FabricNeed, Invitation, Membership, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -16,6 +20,10 @@ export function initModels(sequelize: Sequelize): void {
   TesterProfile.initModel(sequelize);
   PasswordReset.initModel(sequelize);
   Invitation.initModel(sequelize);
+  Pattern.initModel(sequelize);
+  PatternSize.initModel(sequelize);
+  PatternVariant.initModel(sequelize);
+  FabricNeed.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -28,4 +36,11 @@ export function initModels(sequelize: Sequelize): void {
   Studio.hasMany(Invitation, { as: 'invitations', foreignKey: 'studioId' });
   Invitation.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
   Invitation.belongsTo(User, { as: 'invitedBy', foreignKey: 'invitedById' });
+  Studio.hasMany(Pattern, { as: 'patterns', foreignKey: 'studioId' });
+  Pattern.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
+  Pattern.hasMany(PatternSize, { as: 'sizes', foreignKey: 'patternId' });
+  PatternSize.belongsTo(Pattern, { as: 'pattern', foreignKey: 'patternId' });
+  Pattern.hasMany(PatternVariant, { as: 'variants', foreignKey: 'patternId' });
+  Pattern.hasMany(FabricNeed, { as: 'fabricNeeds', foreignKey: 'patternId' });
+  FabricNeed.belongsTo(PatternSize, { as: 'size', foreignKey: 'sizeId' });
 }

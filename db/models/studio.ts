@@ -14,6 +14,8 @@ export class Studio extends Model<InferAttributes<Studio>, InferCreationAttribut
   declare name: string;
   declare slug: string;
   declare timeZone: CreationOptional<string>;
+  /** Studio-wide thresholds; see server/domain/studio-settings.ts for the keys and defaults. */
+  declare settings: CreationOptional<Record<string, unknown>>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare memberships?: NonAttribute<Membership[]>;
@@ -25,6 +27,7 @@ export class Studio extends Model<InferAttributes<Studio>, InferCreationAttribut
         name: { type: DataTypes.STRING(120), allowNull: false },
         slug: { type: DataTypes.STRING(80), allowNull: false, unique: true },
         timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
+        settings: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

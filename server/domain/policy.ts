@@ -17,6 +17,11 @@ export const POLICY = {
   // (checked in the invitations service).
   'invitations.create': ['owner', 'coordinator'],
   'invitations.revoke': ['owner', 'coordinator'],
+  'patterns.read': ['owner', 'coordinator', 'grader'],
+  'patterns.write': ['owner', 'coordinator'],
+  // Size advice for one's own body against a pattern's chart. Testers are included because the
+  // chart is what a call for testers publishes; their measurements stay their own.
+  'patterns.adviseSelf': ['owner', 'coordinator', 'grader', 'tester'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof POLICY;

@@ -4,6 +4,7 @@ import { requireStudio, requireUser } from '../auth/guards';
 import { createStudioSchema, updateStudioSchema } from '../domain/schemas/studios';
 import { invitationsRouter } from '../invitations/invitations.routes';
 import { membersRouter } from '../members/members.routes';
+import { patternsRouter } from '../patterns/patterns.routes';
 import { removeMember } from '../members/members.service';
 import { validate } from '../middleware/validate';
 import { serializeStudio } from '../serializers';
@@ -48,5 +49,6 @@ export function studiosRouter(deps: AppDeps): Router {
 
   router.use('/:studioId/members', membersRouter());
   router.use('/:studioId/invitations', invitationsRouter(deps));
+  router.use('/:studioId/patterns', patternsRouter());
   return router;
 }

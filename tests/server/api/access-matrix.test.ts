@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Invitation } from '../../../db/models';
+import { Invitation, Pattern, PatternSize } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
 import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
@@ -14,7 +14,7 @@ import { buildTestApp, type TestApp } from '../../support/test-app';
 const PERSONAS = ['anonymous', 'testerHere', 'testerElsewhere', 'grader', 'coordinator', 'owner', 'memberElsewhere'] as const;
 type Persona = (typeof PERSONAS)[number];
 
-type Ctx = StudioWorld & { persona: Persona; inviteToken: string; invitationId: string };
+type Ctx = StudioWorld & { persona: Persona; inviteToken: string; invitationId: string; patternId: string };
 type Row = { allow: readonly Persona[]; call: (ctx: Ctx) => { path: string; body?: object } };
 
 const EVERYONE = PERSONAS;
@@ -22,6 +22,7 @@ const SIGNED_IN = PERSONAS.filter((p) => p !== 'anonymous');
 const MEMBERS_HERE = ['testerHere', 'grader', 'coordinator', 'owner'] as const;
 const MANAGERS = ['coordinator', 'owner'] as const;
 const OWNER = ['owner'] as const;
+const STAFF = ['grader', 'coordinator', 'owner'] as const;
 
 const MATRIX: Record<string, Row> = {
   'GET /api/health': { allow: EVERYONE, call: () => ({ path: '/api/health' }) },
@@ -91,6 +92,41 @@ const MATRIX: Record<string, Row> = {
     allow: SIGNED_IN,
     call: () => ({ path: '/api/me/profile', body: { lengthUnit: 'cm', measurementsMm: { hip: 1020 } } }),
   },
+  'GET /api/studios/:studioId/patterns': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns` }) },
+  'POST /api/studios/:studioId/patterns': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns`, body: { name: 'Shorts', category: 'shorts', fabricKind: 'woven' } }),
+  },
+  'GET /api/studios/:studioId/patterns/:patternId': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}` }),
+  },
+  'PATCH /api/studios/:studioId/patterns/:patternId': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}`, body: { notes: 'Pockets moved' } }),
+  },
+  'PUT /api/studios/:studioId/patterns/:patternId/chart': {
+    allow: MANAGERS,
+    call: (c) => ({
+      path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/chart`,
+      body: { draftedHeightMm: 1680, bodyColumns: ['hip'], finishedColumns: [], sizes: [{ label: 'M', bodyMm: { hip: 1000 } }] },
+    }),
+  },
+  'PUT /api/studios/:studioId/patterns/:patternId/fabric-needs': {
+    allow: MANAGERS,
+    call: (c) => ({
+      path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/fabric-needs`,
+      body: { needs: [{ size: 'M', widthMm: 1500, napped: false, lengthMm: 1800 }] },
+    }),
+  },
+  'GET /api/studios/:studioId/patterns/:patternId/chart.csv': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/chart.csv` }),
+  },
+  'POST /api/studios/:studioId/patterns/:patternId/chart.csv': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/chart.csv`, body: { csv: 'Size,Hip (cm)\nM,100' } }),
+  },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {
@@ -140,7 +176,9 @@ describe('access matrix', () => {
         invitedById: world.users.owner.id,
         expiresAt: new Date(Date.now() + 86_400_000),
       });
-      const { path, body } = row.call({ ...world, persona, inviteToken: token, invitationId: invitation.id });
+      const pattern = await Pattern.create({ studioId: world.studio.id, name: 'Trousers', category: 'trousers', fabricKind: 'woven', bodyColumns: ['hip'] });
+      await PatternSize.create({ patternId: pattern.id, label: 'M', position: 0, bodyMm: { hip: 1000 } });
+      const { path, body } = row.call({ ...world, persona, inviteToken: token, invitationId: invitation.id, patternId: pattern.id });
       const [method] = route.split(' ');
       let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](path);
       if (user) req = req.set('Authorization', bearer(user, t.config));
