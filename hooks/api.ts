@@ -15,16 +15,25 @@ export class ApiError extends Error {
   }
 }
 
-type Options = { method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE'; body?: unknown };
+type Options = {
+  method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  /** Sent as JSON. */
+  body?: unknown;
+  /** Sent as it is, e.g. a CSV file's text, with its own content type. */
+  text?: { content: string; type: string };
+};
 
-export async function api<T>(path: string, { method = 'GET', body }: Options = {}): Promise<T> {
+export async function api<T>(path: string, { method = 'GET', body, text }: Options = {}): Promise<T> {
   let res: Response;
   try {
     res = await fetch(path, {
       method,
       credentials: 'same-origin',
-      headers: body === undefined ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      headers: {
+        Accept: 'application/json',
+        ...(text ? { 'Content-Type': text.type } : body !== undefined ? { 'Content-Type': 'application/json' } : {}),
+      },
+      body: text ? text.content : body === undefined ? undefined : JSON.stringify(body),
     });
   } catch {
     throw new ApiError(0, 'offline', 'Basted cannot be reached. Check your connection and try again.');

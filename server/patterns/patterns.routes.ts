@@ -3,13 +3,14 @@ import { z } from 'zod';
 import { requireStudio } from '../auth/guards';
 import { FINISHED_MEASUREMENTS } from '../domain/garments';
 import { MEASUREMENTS } from '../domain/measurements';
-import { chartSchema, createPatternSchema, fabricNeedsSchema, updatePatternSchema } from '../domain/schemas/patterns';
+import { adviceRequestSchema, chartSchema, createPatternSchema, fabricNeedsSchema, updatePatternSchema } from '../domain/schemas/patterns';
 import { AppError } from '../errors';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { chartToCsv, csvToChart, type CsvColumn } from './chart-csv';
 import { serializeChart, serializePattern, serializePatternSummary } from './pattern-serializer';
 import { createPattern, listPatterns, loadPattern, saveChart, saveFabricNeeds, updatePattern } from './patterns.service';
+import { adviceFor, myAdvice } from './size-advice.service';
 
 const CSV_CATALOG: CsvColumn[] = [
   ...MEASUREMENTS.map((m) => ({ key: m.key, label: m.label, kind: 'body' as const })),
@@ -117,6 +118,20 @@ export function patternsRouter(): Router {
       res.json(serializePattern(await saveChart(studioId(res), String(req.params.patternId), chart.data)));
     },
   );
+
+  // Advice for the caller's own saved measurements; testers included (see the policy).
+  router.get('/:patternId/size-advice', requireStudio('patterns.adviseSelf', 'get size advice'), pattern, async (req, res) => {
+    const found = await loadPattern(studioId(res), String(req.params.patternId));
+    const { measurementsMm, advice } = await myAdvice(found, res.locals.user!);
+    res.json({ pattern: { id: found.id, name: found.name, category: found.category }, measurementsMm, advice });
+  });
+
+  // Staff try the chart against any measurements, e.g. while editing it.
+  router.post('/:patternId/size-advice', read, pattern, validate({ body: adviceRequestSchema }), async (req, res) => {
+    const found = await loadPattern(studioId(res), String(req.params.patternId));
+    const advice = await adviceFor(found, res.locals.body.measurementsMm, res.locals.user!.lengthUnit);
+    res.json({ pattern: { id: found.id, name: found.name, category: found.category }, measurementsMm: res.locals.body.measurementsMm, advice });
+  });
 
   return router;
 }

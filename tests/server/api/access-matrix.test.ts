@@ -127,6 +127,14 @@ const MATRIX: Record<string, Row> = {
     allow: MANAGERS,
     call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/chart.csv`, body: { csv: 'Size,Hip (cm)\nM,100' } }),
   },
+  'GET /api/studios/:studioId/patterns/:patternId/size-advice': {
+    allow: MEMBERS_HERE,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/size-advice` }),
+  },
+  'POST /api/studios/:studioId/patterns/:patternId/size-advice': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/size-advice`, body: { measurementsMm: { hip: 1000 } } }),
+  },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {
