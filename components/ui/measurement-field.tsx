@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { StyleSheet, TextInput, View } from 'react-native';
 import { colors, fonts, radius, space } from '@/constants/theme';
-import { formatLength, parseLength, type LengthUnit } from '@/server/domain/units';
+import { formatLength, parseLength, type LengthUnit, type ParseResult } from '@/server/domain/units';
 import { AppText } from './text';
 
 type Props = {
@@ -19,14 +19,21 @@ type Props = {
   hint?: string;
   /** Overrides the example shown in the empty field (the default suits a small amount). */
   placeholder?: string;
+  /** Shows the value without letting it change (e.g. for a grader). */
+  readOnly?: boolean;
+  /** Hides the visible label (in a table whose header names the column); it stays the accessible name. */
+  hideLabel?: boolean;
+  /** Reads the typed text and shows a stored value; defaults to body lengths (parseLength / formatLength). */
+  parse?: (text: string) => ParseResult;
+  format?: (mm: number) => string;
   /** For react-hook-form's touched state (Controller's field.onBlur). */
   onBlur?: () => void;
   /** Told whenever the typed text becomes unreadable (the message) or readable again (null), so a form can hold back its submit. */
   onInputError?: (message: string | null) => void;
 };
 
-function shown(valueMm: number | null, unit: LengthUnit): string {
-  return valueMm === null ? '' : formatLength(valueMm, unit);
+function shown(valueMm: number | null, unit: LengthUnit, format?: (mm: number) => string): string {
+  return valueMm === null ? '' : format ? format(valueMm) : formatLength(valueMm, unit);
 }
 
 /**
@@ -44,10 +51,14 @@ export function MeasurementField({
   allowNegative = false,
   hint,
   placeholder: placeholderOverride,
+  readOnly = false,
+  hideLabel = false,
+  parse,
+  format,
   onBlur,
   onInputError,
 }: Props) {
-  const [text, setText] = useState(() => shown(valueMm, unit));
+  const [text, setText] = useState(() => shown(valueMm, unit, format));
   const [inputError, setInputError] = useState<string | null>(null);
   const [focused, setFocused] = useState(false);
   // Only text the person has edited is read again: re-reading the shown "1 3/8 in" of a stored
@@ -60,7 +71,7 @@ export function MeasurementField({
   if (synced.valueMm !== valueMm || synced.unit !== unit) {
     setSynced({ valueMm, unit });
     if (!focused) {
-      setText(shown(valueMm, unit));
+      setText(shown(valueMm, unit, format));
       setDirty(false);
       setInputError(null);
     }
@@ -81,14 +92,14 @@ export function MeasurementField({
       if (valueMm !== null) onChangeMm(null);
       return;
     }
-    const result = parseLength(text, unit, { allowNegative });
+    const result = parse ? parse(text) : parseLength(text, unit, { allowNegative });
     if (!result.ok) {
       // Keep what was typed so it can be corrected, and keep the last good value in the form.
       reportInputError(result.message);
       return;
     }
     reportInputError(null);
-    setText(formatLength(result.mm, unit));
+    setText(shown(result.mm, unit, format));
     setDirty(false);
     onChangeMm(result.mm);
   }
@@ -98,7 +109,7 @@ export function MeasurementField({
 
   return (
     <View style={styles.field}>
-      <AppText variant="label">{label}</AppText>
+      {hideLabel ? null : <AppText variant="label">{label}</AppText>}
       {hint ? (
 <AppText variant="caption">{hint}</AppText>
       ) : null}
@@ -123,7 +134,8 @@ export function MeasurementField({
         autoCorrect={false}
         spellCheck={false}
         inputMode="text"
-        style={[styles.input, focused && styles.inputFocused, message ? styles.inputInvalid : null]}
+        editable={!readOnly}
+        style={[styles.input, focused && styles.inputFocused, message ? styles.inputInvalid : null, readOnly && styles.inputReadOnly]}
       />
       {message ? (
         <AppText role="alert" aria-live="polite" variant="caption" style={styles.error}>
@@ -148,6 +160,7 @@ const styles = StyleSheet.create({
     fontSize: 16,
     color: colors.ink,
   },
+  inputReadOnly: { backgroundColor: colors.surfaceSunken, borderColor: colors.surfaceSunken },
   inputFocused: { borderColor: colors.focus, borderWidth: 2 },
   inputInvalid: { borderColor: colors.warning, borderWidth: 2 },
   error: { color: colors.warning, fontFamily: fonts.medium },

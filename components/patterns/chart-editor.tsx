@@ -1,0 +1,203 @@
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { ChoiceGroup } from '@/components/ui/choice-group';
+import { MeasurementField } from '@/components/ui/measurement-field';
+import { Notice } from '@/components/ui/notice';
+import { AppText } from '@/components/ui/text';
+import { TextField } from '@/components/ui/text-field';
+import { ToggleChips } from '@/components/ui/toggle-chips';
+import { colors, space } from '@/constants/theme';
+import { ApiError } from '@/hooks/api';
+import { saveChart, type PatternDetail } from '@/hooks/use-patterns';
+import { FINISHED_MEASUREMENTS, type FabricKind, type GarmentCategory } from '@/server/domain/garments';
+import { MEASUREMENTS } from '@/server/domain/measurements';
+import type { LengthUnit } from '@/server/domain/units';
+import { ChartChecksPanel } from './chart-checks-panel';
+import { chartInputFromDraft, describeChartPath, draftFromChart, newKey, nextSizeLabel, type ChartDraft } from './chart-draft';
+import { ChartValuesEditor } from './chart-values-editor';
+
+type Props = { studioId: string; pattern: PatternDetail; unit: LengthUnit; canEdit: boolean };
+
+const BODY_OPTIONS = MEASUREMENTS.map((m) => ({ value: m.key, label: m.label }));
+const FINISHED_OPTIONS = FINISHED_MEASUREMENTS.map((m) => ({ value: m.key, label: m.label }));
+const labelOf = (options: { value: string; label: string }[], key: string) => options.find((o) => o.value === key)?.label ?? key;
+
+/** The size chart of a pattern: sizes in order, measurement columns, values, variants; saved as a whole. */
+export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
+  const [draft, setDraft] = useState<ChartDraft>(() => draftFromChart(pattern.chart));
+  const [busy, setBusy] = useState(false);
+  const [result, setResult] = useState<{ tone: 'error' | 'success'; message: string; problems: string[] } | null>(null);
+  const update = (change: (d: ChartDraft) => ChartDraft) => {
+    setDraft(change);
+    setResult(null);
+  };
+
+  const moveSize = (index: number, by: -1 | 1) =>
+    update((d) => {
+      const sizes = [...d.sizes];
+      const [size] = sizes.splice(index, 1);
+      sizes.splice(index + by, 0, size);
+      return { ...d, sizes };
+    });
+
+  const save = async () => {
+    setBusy(true);
+    try {
+      const saved = await saveChart(studioId, pattern.id, chartInputFromDraft(draft));
+      setDraft(draftFromChart(saved.chart));
+      setResult({ tone: 'success', message: 'Size chart saved.', problems: [] });
+    } catch (error) {
+      const problems = error instanceof ApiError && error.fields ? Object.entries(error.fields).map(([path, what]) => `${describeChartPath(path, draft)}: ${what}`) : [];
+      setResult({ tone: 'error', message: error instanceof Error ? error.message : 'Not saved.', problems });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  const bodyColumns = draft.bodyColumns.map((k) => ({ key: k, label: labelOf(BODY_OPTIONS, k) }));
+  const finishedColumns = draft.finishedColumns.map((k) => ({ key: k, label: labelOf(FINISHED_OPTIONS, k) }));
+
+  return (
+    <>
+      <Card title="Size chart">
+        <MeasurementField
+          label="Drafted for a height of"
+          hint="The height the sample size is drafted for; leg advice compares testers with it."
+          unit={unit}
+          placeholder={unit === 'in' ? 'e.g. 66' : 'e.g. 168 cm'}
+          valueMm={draft.draftedHeightMm}
+          readOnly={!canEdit}
+          onChangeMm={(mm) => update((d) => ({ ...d, draftedHeightMm: mm }))}
+        />
+        <ToggleChips label="Body measurements in the chart" options={BODY_OPTIONS} selected={draft.bodyColumns} disabled={!canEdit} onChange={(bodyColumns) => update((d) => ({ ...d, bodyColumns }))} />
+
+        <AppText variant="label">Sizes, smallest first</AppText>
+        {draft.sizes.map((size, i) => (
+          <View key={size.key} style={styles.sizeRow}>
+            <View style={styles.grow}>
+              <TextField
+                label={`Size ${i + 1} label`}
+                value={size.label}
+                editable={canEdit}
+                onChangeText={(label) => update((d) => ({ ...d, sizes: d.sizes.map((s) => (s.key === size.key ? { ...s, label } : s)) }))}
+              />
+            </View>
+            {canEdit ? (
+              <View style={styles.sizeButtons}>
+                <Button label="Up" accessibleLabel={`Move size ${size.label} up`} tone="quiet" disabled={i === 0} onPress={() => moveSize(i, -1)} />
+                <Button label="Down" accessibleLabel={`Move size ${size.label} down`} tone="quiet" disabled={i === draft.sizes.length - 1} onPress={() => moveSize(i, 1)} />
+                <Button label="Remove" accessibleLabel={`Remove size ${size.label}`} tone="danger" onPress={() => update((d) => ({ ...d, sizes: d.sizes.filter((s) => s.key !== size.key) }))} />
+              </View>
+            ) : null}
+          </View>
+        ))}
+        {canEdit ? (
+          <Button
+            label="Add a size"
+            tone="quiet"
+            onPress={() =>
+              update((d) => ({ ...d, sizes: [...d.sizes, { key: newKey(), label: nextSizeLabel(d.sizes.map((s) => s.label)), bodyMm: {}, finishedMm: {} }] }))
+            }
+          />
+        ) : null}
+
+        <AppText variant="label">Body measurements per size</AppText>
+        <ChartValuesEditor
+          title="Body"
+          columns={bodyColumns}
+          rows={draft.sizes.map((s) => ({ key: s.key, label: s.label, values: s.bodyMm }))}
+          unit={unit}
+          readOnly={!canEdit}
+          onChange={(row, col, mm) => update((d) => ({ ...d, sizes: d.sizes.map((s) => (s.key === row ? { ...s, bodyMm: { ...s.bodyMm, [col]: mm } } : s)) }))}
+        />
+
+        <ToggleChips label="Finished garment measurements" options={FINISHED_OPTIONS} selected={draft.finishedColumns} disabled={!canEdit} onChange={(finishedColumns) => update((d) => ({ ...d, finishedColumns }))} />
+        {finishedColumns.length ? (
+          <ChartValuesEditor
+            title="Finished"
+            columns={finishedColumns}
+            rows={draft.sizes.map((s) => ({ key: s.key, label: s.label, values: s.finishedMm }))}
+            unit={unit}
+            readOnly={!canEdit}
+            onChange={(row, col, mm) => update((d) => ({ ...d, sizes: d.sizes.map((s) => (s.key === row ? { ...s, finishedMm: { ...s.finishedMm, [col]: mm } } : s)) }))}
+          />
+        ) : null}
+
+        <AppText variant="label">Variants</AppText>
+        <AppText variant="caption">A variant (a fuller-belly front, a cup size) replaces some body measurements in the sizes it is drafted for.</AppText>
+        {draft.variants.map((variant) => (
+          <View key={variant.key} style={styles.variant}>
+            <TextField
+              label="Variant name"
+              value={variant.name}
+              editable={canEdit}
+              onChangeText={(name) => update((d) => ({ ...d, variants: d.variants.map((v) => (v.key === variant.key ? { ...v, name } : v)) }))}
+            />
+            <ChoiceGroup
+              label={`Kind of ${variant.name || 'variant'}`}
+              options={[
+                { value: 'fuller-belly', label: 'Fuller belly' },
+                { value: 'cup', label: 'Cup size' },
+                { value: 'other', label: 'Other' },
+              ]}
+              value={variant.kind}
+              onChange={(kind) => canEdit && update((d) => ({ ...d, variants: d.variants.map((v) => (v.key === variant.key ? { ...v, kind } : v)) }))}
+            />
+            <ToggleChips
+              label={`Measurements ${variant.name || 'the variant'} changes`}
+              options={bodyColumns.map((c) => ({ value: c.key, label: c.label }))}
+              selected={variant.columns}
+              disabled={!canEdit}
+              onChange={(columns) => update((d) => ({ ...d, variants: d.variants.map((v) => (v.key === variant.key ? { ...v, columns } : v)) }))}
+            />
+            <ChartValuesEditor
+              title={variant.name || 'Variant'}
+              columns={bodyColumns.filter((c) => variant.columns.includes(c.key))}
+              rows={draft.sizes.map((s) => ({ key: s.key, label: s.label, values: variant.values[s.key] ?? {} }))}
+              unit={unit}
+              readOnly={!canEdit}
+              onChange={(row, col, mm) =>
+                update((d) => ({
+                  ...d,
+                  variants: d.variants.map((v) => (v.key === variant.key ? { ...v, values: { ...v.values, [row]: { ...v.values[row], [col]: mm } } } : v)),
+                }))
+              }
+            />
+            {canEdit ? <Button label="Remove variant" tone="danger" onPress={() => update((d) => ({ ...d, variants: d.variants.filter((v) => v.key !== variant.key) }))} /> : null}
+          </View>
+        ))}
+        {canEdit ? (
+          <Button
+            label="Add a variant"
+            tone="quiet"
+            onPress={() => update((d) => ({ ...d, variants: [...d.variants, { key: newKey(), name: 'Fuller belly front', kind: 'fuller-belly', columns: d.bodyColumns.includes('waist') ? ['waist'] : [], values: {} }] }))}
+          />
+        ) : null}
+
+        {result ? (
+          <View style={styles.result}>
+            <Notice tone={result.tone}>{result.message}</Notice>
+            {result.problems.map((p) => (
+              <AppText key={p} variant="caption" style={styles.problem}>
+                {`\u2022 ${p}`}
+              </AppText>
+            ))}
+          </View>
+        ) : null}
+        {canEdit ? <Button label="Save size chart" busyLabel="Saving…" busy={busy} onPress={save} /> : null}
+      </Card>
+      <ChartChecksPanel draft={draft} category={pattern.category as GarmentCategory} fabricKind={pattern.fabricKind as FabricKind} unit={unit} />
+    </>
+  );
+}
+
+const styles = StyleSheet.create({
+  sizeRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'flex-end', gap: space.sm },
+  grow: { flexGrow: 1, minWidth: 140 },
+  sizeButtons: { flexDirection: 'row', gap: space.xs },
+  variant: { gap: space.sm, padding: space.md, borderWidth: 1, borderColor: colors.line, borderRadius: 10 },
+  result: { gap: space.xs },
+  problem: { color: colors.warning },
+});
