@@ -49,7 +49,7 @@ describe('the web app in Chromium', () => {
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'phone-home.png'), fullPage: true });
 
     await page.getByRole('link', { name: 'Studio', exact: true }).click();
-    await page.getByRole('heading', { name: 'Trials' }).waitFor();
+    await page.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/trials');
 
     // On a phone the sections sit in a bar along the bottom of the window.
@@ -59,7 +59,7 @@ describe('the web app in Chromium', () => {
     expect(box.y + box.height).toBeGreaterThan(PHONE.height - 4);
 
     await nav.getByRole('link', { name: 'Patterns' }).click();
-    await page.getByRole('heading', { name: 'Patterns' }).waitFor();
+    await page.getByRole('heading', { name: 'Patterns', level: 1 }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/patterns');
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'phone-patterns.png') });
     await page.close();
@@ -68,7 +68,7 @@ describe('the web app in Chromium', () => {
   it('on a wide window, shows a side navigation and moves between sections', async () => {
     const page = await h.newPage(owner, WIDE);
     await page.goto('/trials');
-    await page.getByRole('heading', { name: 'Trials' }).waitFor();
+    await page.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
 
     const nav = page.getByRole('navigation', { name: 'Sections' });
     const box = (await nav.boundingBox())!;
@@ -79,7 +79,7 @@ describe('the web app in Chromium', () => {
     await page.getByText('Shell Test Studio · Owner').waitFor();
 
     await nav.getByRole('link', { name: 'Findings' }).click();
-    await page.getByRole('heading', { name: 'Findings' }).waitFor();
+    await page.getByRole('heading', { name: 'Findings', level: 1 }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/findings');
     expect(await nav.getByRole('link', { name: 'Findings' }).getAttribute('aria-current')).toBe('page');
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'wide-findings.png') });
