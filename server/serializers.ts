@@ -1,4 +1,5 @@
 import type { Invitation, Membership, Studio, TesterProfile, User } from '../db/models';
+import { resolveStudioSettings } from './domain/studio-settings';
 
 /** What the API says about a user: never the password hash or the session version. */
 export function serializeUser(user: User) {
@@ -14,7 +15,14 @@ export function serializeUser(user: User) {
 }
 
 export function serializeStudio(studio: Studio, role?: Membership['role']) {
-  return { id: studio.id, name: studio.name, slug: studio.slug, timeZone: studio.timeZone, ...(role ? { role } : {}) };
+  return {
+    id: studio.id,
+    name: studio.name,
+    slug: studio.slug,
+    timeZone: studio.timeZone,
+    settings: resolveStudioSettings(studio.settings),
+    ...(role ? { role } : {}),
+  };
 }
 
 export function serializeMember(membership: Membership) {

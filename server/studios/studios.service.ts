@@ -41,7 +41,8 @@ export async function createStudio(user: User, input: z.output<typeof createStud
 export async function updateStudio(studioId: string, input: z.output<typeof updateStudioSchema>): Promise<Studio> {
   const studio = await Studio.findByPk(studioId);
   if (!studio) throw notFound('studio');
-  return studio.update(input);
+  const { settings, ...fields } = input;
+  return studio.update({ ...fields, ...(settings ? { settings: { ...studio.settings, ...settings } } : {}) });
 }
 
 export async function deleteStudio(studioId: string): Promise<void> {

@@ -4,6 +4,7 @@ import { ChartEditor } from '@/components/patterns/chart-editor';
 import { CautionsPanel } from '@/components/patterns/cautions-panel';
 import { CsvPanel } from '@/components/patterns/csv-panel';
 import { FabricNeedsEditor } from '@/components/patterns/fabric-needs-editor';
+import { PatternDetailsForm } from '@/components/patterns/pattern-details-form';
 import { TryAdvicePanel } from '@/components/patterns/try-advice-panel';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -42,6 +43,7 @@ export default function PatternScreen() {
   return (
     <Screen title={pattern.name} intro={intro}>
       <CautionsPanel category={pattern.category as GarmentCategory} />
+      {canEdit ? <PatternDetailsForm key={`details-${pattern.updatedAt}`} studioId={studioId} pattern={pattern} /> : null}
       <ChartEditor key={`chart-${generation}`} studioId={studioId} pattern={pattern} unit={session.user.lengthUnit} canEdit={canEdit} />
       <CsvPanel studioId={studioId} patternId={pattern.id} canEdit={canEdit} onImported={() => setGeneration((g) => g + 1)} />
       <FabricNeedsEditor key={`fabric-${generation}-${pattern.chart.sizes.length}`} studioId={studioId} pattern={pattern} lengthUnit={session.user.lengthUnit} fabricUnit={session.user.fabricUnit} canEdit={canEdit} />

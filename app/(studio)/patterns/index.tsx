@@ -1,6 +1,7 @@
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { NewPatternForm } from '@/components/patterns/new-pattern-form';
+import { StudioSettingsCard } from '@/components/patterns/studio-settings-card';
 import { Card } from '@/components/ui/card';
 import { Screen } from '@/components/ui/screen';
 import { Empty, LoadError, Loading } from '@/components/ui/states';
@@ -15,7 +16,7 @@ const categoryLabel = (key: string) => GARMENT_CATEGORIES.find((c) => c.key === 
 const fabricLabel = (key: string) => FABRIC_KINDS.find((k) => k.key === key)?.label ?? key;
 
 export default function PatternsScreen() {
-  const { currentStudio } = useSession();
+  const { session, currentStudio } = useSession();
   const { data, error, mutate } = usePatterns(currentStudio?.id);
   return (
     <Screen title="Patterns" intro="Each pattern with its size chart, finished measurements, fabric needs and drafts.">
@@ -39,6 +40,7 @@ export default function PatternsScreen() {
           ))}
         </View>
       </Card>
+      {currentStudio && session && can(currentStudio.role, 'studio.update') ? <StudioSettingsCard studioId={currentStudio.id} unit={session.user.lengthUnit} /> : null}
     </Screen>
   );
 }

@@ -13,7 +13,16 @@ export const createStudioSchema = z.object({
 });
 export type CreateStudioInput = z.input<typeof createStudioSchema>;
 
-export const updateStudioSchema = createStudioSchema.partial();
+export const updateStudioSchema = z.object({
+  name: createStudioSchema.shape.name.optional(),
+  timeZone: timeZoneSchema.optional(),
+  settings: z
+    .object({
+      fullerBellyMarginMm: z.number({ error: 'must be a length in millimetres' }).min(0, 'must not be negative').max(200, 'must be at most 20 cm'),
+    })
+    .partial()
+    .optional(),
+});
 
 export const inviteSchema = z.object({
   email: emailSchema,

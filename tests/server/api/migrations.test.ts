@@ -67,13 +67,16 @@ describe('migrations', () => {
       await migrateUp(sequelize);
       await seedDemoStudio(sequelize, 4);
       await seedDemoStudio(sequelize, 4);
-      const [counts] = await sequelize.query<{ users: string; studios: string; memberships: string }>(
-        'SELECT (SELECT count(*) FROM users) AS users, (SELECT count(*) FROM studios) AS studios, (SELECT count(*) FROM memberships) AS memberships',
+      const [counts] = await sequelize.query<{ users: string; studios: string; memberships: string; patterns: string; sizes: string }>(
+        'SELECT (SELECT count(*) FROM users) AS users, (SELECT count(*) FROM studios) AS studios, (SELECT count(*) FROM memberships) AS memberships, ' +
+          '(SELECT count(*) FROM patterns) AS patterns, (SELECT count(*) FROM pattern_sizes) AS sizes',
         { type: QueryTypes.SELECT },
       );
       expect(Number(counts.users)).toBe(DEMO_ACCOUNTS.length);
       expect(Number(counts.studios)).toBe(1);
       expect(Number(counts.memberships)).toBe(DEMO_ACCOUNTS.length);
+      expect(Number(counts.patterns)).toBe(1);
+      expect(Number(counts.sizes)).toBe(11);
     });
   });
 });

@@ -162,3 +162,30 @@ describe('studios, members and invitations', () => {
     expect((await request(t.app).put('/api/auth/session/studio').set(as(person)).send({ studioId: foreign.id })).status).toBe(404);
   });
 });
+
+describe('studio settings', () => {
+  let t: TestApp;
+  beforeAll(() => {
+    t = buildTestApp();
+  });
+  afterAll(() => t.close());
+
+  it('the owner sets the fuller-belly margin; an unset studio reads the default; a bad value is named', async () => {
+    const w = await createStudioWorld();
+    const path = `/api/studios/${w.studio.id}`;
+    const auth = { Authorization: bearer(w.users.owner, t.config) };
+    // Default 1 in = 25.4 mm (common practice, see server/domain/studio-settings.ts).
+    expect((await request(t.app).get(path).set(auth)).body.settings).toEqual({ fullerBellyMarginMm: 25.4 });
+    const set = await request(t.app).patch(path).set(auth).send({ settings: { fullerBellyMarginMm: 38.1 } });
+    expect(set.status).toBe(200);
+    expect(set.body.settings.fullerBellyMarginMm).toBe(38.1);
+    const bad = await request(t.app).patch(path).set(auth).send({ settings: { fullerBellyMarginMm: -5 } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields['settings.fullerBellyMarginMm']).toBe('must not be negative');
+    const coordinator = await request(t.app)
+      .patch(path)
+      .set({ Authorization: bearer(w.users.coordinator, t.config) })
+      .send({ settings: { fullerBellyMarginMm: 10 } });
+    expect(coordinator.status).toBe(403);
+  });
+});
