@@ -11,6 +11,7 @@ import type { Config } from './config';
 import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { callsRouter, myTrialsRouter } from './calls/calls.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
@@ -33,6 +34,8 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/studios', studiosRouter(deps));
   api.use('/invitations', invitationLinksRouter());
   api.use('/me', profileRouter());
+  api.use('/me', myTrialsRouter(deps));
+  api.use('/calls', callsRouter(deps));
   api.use(apiNotFound);
   return api;
 }

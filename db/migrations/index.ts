@@ -3,6 +3,7 @@ import type { QueryInterface } from 'sequelize';
 import * as accounts from './0001-accounts';
 import * as profiles from './0002-profiles-and-invitations';
 import * as patterns from './0003-patterns';
+import * as trials from './0004-trials';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -11,4 +12,5 @@ export const migrations: Migration[] = [
   { name: '0001-accounts', ...accounts },
   { name: '0002-profiles-and-invitations', ...profiles },
   { name: '0003-patterns', ...patterns },
+  { name: '0004-trials', ...trials },
 ];

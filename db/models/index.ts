@@ -1,16 +1,20 @@
 import type { Sequelize } from 'sequelize';
+import { Application } from './application';
+import { Enrollment } from './enrollment';
 import { FabricNeed } from './fabric-need';
 import { Invitation } from './invitation';
 import { Membership } from './membership';
+import { Milestone } from './milestone';
 import { PasswordReset } from './password-reset';
 import { Pattern } from './pattern';
 import { PatternSize } from './pattern-size';
 import { PatternVariant } from './pattern-variant';
 import { Studio } from './studio';
 import { TesterProfile } from './tester-profile';
+import { Trial } from './trial';
 import { User } from './user';
 
-export { FabricNeed, Invitation, Membership, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, User };
+export { Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -24,6 +28,10 @@ export function initModels(sequelize: Sequelize): void {
   PatternSize.initModel(sequelize);
   PatternVariant.initModel(sequelize);
   FabricNeed.initModel(sequelize);
+  Trial.initModel(sequelize);
+  Milestone.initModel(sequelize);
+  Application.initModel(sequelize);
+  Enrollment.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -43,4 +51,15 @@ export function initModels(sequelize: Sequelize): void {
   Pattern.hasMany(PatternVariant, { as: 'variants', foreignKey: 'patternId' });
   Pattern.hasMany(FabricNeed, { as: 'fabricNeeds', foreignKey: 'patternId' });
   FabricNeed.belongsTo(PatternSize, { as: 'size', foreignKey: 'sizeId' });
+  Studio.hasMany(Trial, { as: 'trials', foreignKey: 'studioId' });
+  Trial.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
+  Trial.belongsTo(Pattern, { as: 'pattern', foreignKey: 'patternId' });
+  Trial.hasMany(Milestone, { as: 'milestones', foreignKey: 'trialId' });
+  Trial.hasMany(Application, { as: 'applications', foreignKey: 'trialId' });
+  Application.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  Application.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+  Trial.hasMany(Enrollment, { as: 'enrollments', foreignKey: 'trialId' });
+  Enrollment.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  Enrollment.belongsTo(Application, { as: 'application', foreignKey: 'applicationId' });
+  Enrollment.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 }

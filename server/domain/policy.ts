@@ -22,6 +22,10 @@ export const POLICY = {
   // Size advice for one's own body against a pattern's chart. Testers are included because the
   // chart is what a call for testers publishes; their measurements stay their own.
   'patterns.adviseSelf': ['owner', 'coordinator', 'grader', 'tester'],
+  'trials.read': ['owner', 'coordinator', 'grader'],
+  'trials.write': ['owner', 'coordinator'],
+  // Applications carry testers' measurements: only the staff who choose testers see them.
+  'applicants.manage': ['owner', 'coordinator'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof POLICY;

@@ -49,3 +49,42 @@ export function invitationMail(input: {
     html: layout(lines, { label: 'Open the invitation', url: input.link }, footer),
   };
 }
+
+type TrialMail = { name: string; trialTitle: string; studioName: string; link: string };
+
+export function applicationReceivedMail(input: TrialMail & { closesOn: string | null }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `${input.studioName} has your application to test "${input.trialTitle}". ${input.closesOn ? `Applications close on ${input.closesOn}; ` : ''}you will hear whether you are chosen once the studio has decided.`,
+  ];
+  const footer = 'You can withdraw your application at any time from My trials.';
+  return { subject: `Application received: ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'Open My trials', url: input.link }, footer) };
+}
+
+export function selectedMail(input: TrialMail & { sizeLabel: string; dueLines: string[] }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `You are chosen to test "${input.trialTitle}" for ${input.studioName}, in size ${input.sizeLabel}. Thank you!`,
+    ...(input.dueLines.length ? [`Your dates: ${input.dueLines.join('; ')}.`] : []),
+  ];
+  const footer = 'If your plans change, withdraw from My trials so that someone else can take your place.';
+  return { subject: `You are testing ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'See your trial', url: input.link }, footer) };
+}
+
+export function waitlistedMail(input: TrialMail): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `Every place in your size for "${input.trialTitle}" is taken for now, so ${input.studioName} has put you on the waiting list. If a place opens up in your size, it will be offered to you by e-mail.`,
+  ];
+  const footer = 'You can withdraw from the waiting list at any time from My trials.';
+  return { subject: `On the waiting list: ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'Open My trials', url: input.link }, footer) };
+}
+
+export function declinedMail(input: TrialMail): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `Thank you for applying to test "${input.trialTitle}". ${input.studioName} could not offer you a place this time: the trial needed testers in other sizes or heights.`,
+  ];
+  const footer = 'Your profile stays ready for the next call.';
+  return { subject: `About your application: ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'Open My trials', url: input.link }, footer) };
+}

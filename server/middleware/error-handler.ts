@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
+import { ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
 import { ZodError } from 'zod';
 import { AppError } from '../errors';
 
@@ -31,6 +31,10 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
     const fields: Record<string, string> = {};
     for (const item of err.errors) if (item.path) fields[item.path] = 'is already taken';
     return { status: 409, body: { error: { code: 'conflict', message: 'That already exists.', fields } } };
+  }
+  if (err instanceof ForeignKeyConstraintError) {
+    // A last line of defence: services check references first and say which ones.
+    return { status: 409, body: { error: { code: 'in_use', message: 'This is still referred to elsewhere, so it cannot be changed this way.' } } };
   }
   if (err instanceof SequelizeValidationError) {
     const fields: Record<string, string> = {};

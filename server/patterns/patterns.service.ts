@@ -1,8 +1,8 @@
 import { Op, type Transaction } from 'sequelize';
 import type { z } from 'zod';
-import { FabricNeed, Pattern, PatternSize, PatternVariant } from '../../db/models';
+import { Enrollment, FabricNeed, Pattern, PatternSize, PatternVariant } from '../../db/models';
 import type { chartSchema, createPatternSchema, fabricNeedsSchema, updatePatternSchema } from '../domain/schemas/patterns';
-import { badRequest, notFound } from '../errors';
+import { badRequest, conflict, notFound } from '../errors';
 
 export type ChartOutput = z.output<typeof chartSchema>;
 
@@ -73,6 +73,17 @@ export async function saveChart(studioId: string, patternId: string, chart: Char
       }
     }
     const keptIds = new Set(chart.sizes.flatMap((s) => (s.id ? [s.id] : [])));
+    // A size testers are enrolled in stays: their reports refer to it.
+    const removed = [...existing.values()].filter((s) => !keptIds.has(s.id));
+    if (removed.length) {
+      const inUse = await Enrollment.findAll({ where: { sizeId: removed.map((s) => s.id) }, transaction });
+      const labels = [...new Set(inUse.map((e) => existing.get(e.sizeId)!.label))];
+      if (labels.length) {
+        throw conflict(`Testers are enrolled in size ${labels.join(', ')}: keep ${labels.length === 1 ? 'it' : 'them'} in the chart (rename if needed).`, {
+          sizes: `size ${labels.join(', ')} has enrolled testers`,
+        });
+      }
+    }
     await PatternSize.destroy({ where: { patternId, id: { [Op.notIn]: [...keptIds, '00000000-0000-0000-0000-000000000000'] } }, transaction });
     // Park the kept sizes on placeholder labels first, so swapping two labels never collides.
     for (const id of keptIds) await existing.get(id)!.update({ label: `~${id.slice(0, 18)}` }, { transaction });

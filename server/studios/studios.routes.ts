@@ -5,6 +5,7 @@ import { createStudioSchema, updateStudioSchema } from '../domain/schemas/studio
 import { invitationsRouter } from '../invitations/invitations.routes';
 import { membersRouter } from '../members/members.routes';
 import { patternsRouter } from '../patterns/patterns.routes';
+import { trialsRouter } from '../trials/trials.routes';
 import { removeMember } from '../members/members.service';
 import { validate } from '../middleware/validate';
 import { serializeStudio } from '../serializers';
@@ -50,5 +51,6 @@ export function studiosRouter(deps: AppDeps): Router {
   router.use('/:studioId/members', membersRouter());
   router.use('/:studioId/invitations', invitationsRouter(deps));
   router.use('/:studioId/patterns', patternsRouter());
+  router.use('/:studioId/trials', trialsRouter(deps));
   return router;
 }

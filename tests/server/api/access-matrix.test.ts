@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Invitation, Pattern, PatternSize } from '../../../db/models';
+import { Application, Enrollment, Invitation, Pattern, PatternSize, Trial } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
 import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
@@ -14,7 +14,19 @@ import { buildTestApp, type TestApp } from '../../support/test-app';
 const PERSONAS = ['anonymous', 'testerHere', 'testerElsewhere', 'grader', 'coordinator', 'owner', 'memberElsewhere'] as const;
 type Persona = (typeof PERSONAS)[number];
 
-type Ctx = StudioWorld & { persona: Persona; inviteToken: string; invitationId: string; patternId: string };
+type Ctx = StudioWorld & {
+  persona: Persona;
+  inviteToken: string;
+  invitationId: string;
+  patternId: string;
+  sizeId: string;
+  trialId: string;
+  trialSlug: string;
+  enrollmentId: string;
+  otherApplicationId: string;
+  /** An application of the caller's own (every signed-in persona has one). */
+  ownApplicationId: string | null;
+};
 type Row = { allow: readonly Persona[]; call: (ctx: Ctx) => { path: string; body?: object } };
 
 const EVERYONE = PERSONAS;
@@ -135,6 +147,54 @@ const MATRIX: Record<string, Row> = {
     allow: STAFF,
     call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/size-advice`, body: { measurementsMm: { hip: 1000 } } }),
   },
+  'GET /api/studios/:studioId/trials': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials` }) },
+  'POST /api/studios/:studioId/trials': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials`, body: { patternId: c.patternId, title: 'Second round' } }),
+  },
+  'GET /api/studios/:studioId/trials/:trialId': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}` }) },
+  'PATCH /api/studios/:studioId/trials/:trialId': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}`, body: { requirements: 'Photos in daylight.' } }),
+  },
+  'GET /api/studios/:studioId/trials/:trialId/applications': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/applications` }),
+  },
+  'GET /api/studios/:studioId/trials/:trialId/coverage': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/coverage` }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/selection/proposal': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/selection/proposal` }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/decisions': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/decisions`, body: { applicationIds: [c.otherApplicationId], status: 'shortlisted' } }),
+  },
+  'PATCH /api/studios/:studioId/trials/:trialId/enrollments/:enrollmentId/due': {
+    allow: MANAGERS,
+    call: (c) => ({
+      path: `/api/studios/${c.studio.id}/trials/${c.trialId}/enrollments/${c.enrollmentId}/due`,
+      body: { kind: 'final-report', dueAt: new Date(Date.now() + 30 * 86_400_000).toISOString() },
+    }),
+  },
+  'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
+  'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
+  'POST /api/calls/:slug/applications': {
+    allow: SIGNED_IN,
+    call: (c) => ({
+      path: `/api/calls/${c.trialSlug}/applications`,
+      body: { sizeId: c.sizeId, plannedFabric: 'Linen', experience: 'confident', deadlinesConfirmed: true, photoConsent: 'staff-only' },
+    }),
+  },
+  'GET /api/me/trials': { allow: SIGNED_IN, call: () => ({ path: '/api/me/trials' }) },
+  // Only one's own application: a signed-in caller without one would get 404, so each persona has one.
+  'POST /api/me/applications/:applicationId/withdraw': {
+    allow: SIGNED_IN,
+    call: (c) => ({ path: `/api/me/applications/${c.ownApplicationId ?? c.enrollmentId}/withdraw` }),
+  },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {
@@ -185,8 +245,50 @@ describe('access matrix', () => {
         expiresAt: new Date(Date.now() + 86_400_000),
       });
       const pattern = await Pattern.create({ studioId: world.studio.id, name: 'Trousers', category: 'trousers', fabricKind: 'woven', bodyColumns: ['hip'] });
-      await PatternSize.create({ patternId: pattern.id, label: 'M', position: 0, bodyMm: { hip: 1000 } });
-      const { path, body } = row.call({ ...world, persona, inviteToken: token, invitationId: invitation.id, patternId: pattern.id });
+      const size = await PatternSize.create({ patternId: pattern.id, label: 'M', position: 0, bodyMm: { hip: 1000 } });
+      const trial = await Trial.create({
+        studioId: world.studio.id,
+        patternId: pattern.id,
+        slug: `matrix-${token.slice(0, 12).toLowerCase()}`,
+        title: 'Matrix trial',
+        state: 'open',
+        coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] },
+      });
+      // Someone else's enrolment, and for a signed-in caller an application of their own in a second open trial.
+      const otherApp = await Application.create({
+        trialId: trial.id,
+        userId: world.users.otherTester.id === user?.id ? world.users.tester.id : world.users.otherTester.id,
+        sizeId: size.id,
+        variantId: null,
+        profileSnapshot: {},
+        adviceSnapshot: null,
+        plannedFabric: 'Linen',
+        experience: 'confident',
+        photoConsent: 'staff-only',
+        appliedAt: new Date(),
+        status: 'selected',
+      });
+      const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: otherApp.id, userId: otherApp.userId, sizeId: size.id, variantId: null });
+      let ownApplicationId: string | null = null;
+      if (user) {
+        const ownTrial = await Trial.create({ studioId: world.studio.id, patternId: pattern.id, slug: `own-${token.slice(0, 12).toLowerCase()}`, title: 'Own', state: 'open', coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] } });
+        ownApplicationId = (
+          await Application.create({ trialId: ownTrial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Linen', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date() })
+        ).id;
+      }
+      const { path, body } = row.call({
+        ...world,
+        persona,
+        inviteToken: token,
+        invitationId: invitation.id,
+        patternId: pattern.id,
+        sizeId: size.id,
+        trialId: trial.id,
+        trialSlug: trial.slug,
+        enrollmentId: enrollment.id,
+        otherApplicationId: otherApp.id,
+        ownApplicationId,
+      });
       const [method] = route.split(' ');
       let req = request(t.app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](path);
       if (user) req = req.set('Authorization', bearer(user, t.config));

@@ -1,0 +1,54 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+  type Sequelize,
+} from 'sequelize';
+import type { Milestone } from './milestone';
+import type { Pattern } from './pattern';
+import type { Studio } from './studio';
+
+export type TrialState = 'draft' | 'open' | 'running' | 'closed';
+export type StoredCoverage = {
+  sizes: { sizeId: string; target: number }[];
+  heightBands: { id: string; label: string; minMm: number | null; maxMm: number | null }[];
+  variants: string[];
+};
+
+export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes<Trial>> {
+  declare id: CreationOptional<string>;
+  declare studioId: ForeignKey<Studio['id']>;
+  declare patternId: ForeignKey<Pattern['id']>;
+  declare slug: string;
+  declare title: string;
+  declare callText: CreationOptional<string>;
+  declare requirements: CreationOptional<string>;
+  declare state: CreationOptional<TrialState>;
+  declare coverage: CreationOptional<StoredCoverage>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+  declare milestones?: NonAttribute<Milestone[]>;
+  declare pattern?: NonAttribute<Pattern>;
+  declare studio?: NonAttribute<Studio>;
+
+  static initModel(sequelize: Sequelize) {
+    Trial.init(
+      {
+        id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
+        slug: { type: DataTypes.STRING(90), allowNull: false, unique: true },
+        title: { type: DataTypes.STRING(160), allowNull: false },
+        callText: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        requirements: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+        state: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'draft' },
+        coverage: { type: DataTypes.JSONB, allowNull: false, defaultValue: { sizes: [], heightBands: [], variants: [] } },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'trials' },
+    );
+  }
+}

@@ -1,0 +1,78 @@
+import express, { Router } from 'express';
+import { Enrollment } from '../../db/models';
+import type { AppDeps } from '../app';
+import { requireStudio } from '../auth/guards';
+import { createTrialSchema, decideSchema, dueOverrideSchema, updateTrialSchema } from '../domain/schemas/trials';
+import { notFound } from '../errors';
+import { uuidParam } from '../middleware/uuid-param';
+import { validate } from '../middleware/validate';
+import { sendDecisionMail } from './trial-mail';
+import { serializeApplication, serializeTrial } from './trial-serializer';
+import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, proposalFor, updateTrial } from './trials.service';
+
+/** Mounted at /api/studios/:studioId/trials. */
+export function trialsRouter(deps: AppDeps): Router {
+  const router = Router({ mergeParams: true });
+  const studioId = (res: express.Response) => res.locals.membership!.studioId;
+  const trialId = (req: express.Request) => String(req.params.trialId);
+  const read = requireStudio('trials.read', 'see trials');
+  const write = requireStudio('trials.write', 'change trials');
+  const manage = requireStudio('applicants.manage', 'see or decide on applicants');
+  const trial = uuidParam('trialId', 'trial');
+
+  router.get('/', read, async (_req, res) => {
+    res.json((await listTrials(studioId(res))).map(serializeTrial));
+  });
+  router.post('/', write, validate({ body: createTrialSchema }), async (_req, res) => {
+    res.status(201).json(serializeTrial(await createTrial(studioId(res), res.locals.body)));
+  });
+  router.get('/:trialId', read, trial, async (req, res) => {
+    res.json(serializeTrial(await loadTrial(studioId(res), trialId(req))));
+  });
+  router.patch('/:trialId', write, trial, validate({ body: updateTrialSchema }), async (req, res) => {
+    res.json(serializeTrial(await updateTrial(studioId(res), trialId(req), res.locals.body)));
+  });
+
+  router.get('/:trialId/applications', manage, trial, async (req, res) => {
+    const found = await loadTrial(studioId(res), trialId(req));
+    const labels = new Map((found.pattern?.sizes ?? []).map((s) => [s.id, s.label]));
+    const { rows } = await applicantsOf(found);
+    res.json(rows.map((r) => serializeApplication(r, labels)));
+  });
+
+  router.get('/:trialId/coverage', manage, trial, async (req, res) => {
+    res.json(await coverageOf(await loadTrial(studioId(res), trialId(req)), res.locals.user!.lengthUnit));
+  });
+
+  // A proposal only: nothing changes until the coordinator accepts it (as a decision).
+  router.post('/:trialId/selection/proposal', manage, trial, async (req, res) => {
+    res.json(await proposalFor(await loadTrial(studioId(res), trialId(req)), res.locals.user!.lengthUnit));
+  });
+
+  router.post('/:trialId/decisions', manage, trial, validate({ body: decideSchema }), async (req, res) => {
+    const effects = await decide(studioId(res), trialId(req), res.locals.body);
+    await sendDecisionMail(await loadTrial(studioId(res), trialId(req)), effects, deps);
+    res.json({ selected: effects.selected.length, waitlisted: effects.waitlisted.length, declined: effects.declined.length });
+  });
+
+  // More time for one tester: a per-milestone date that replaces the trial's for them alone.
+  router.patch(
+    '/:trialId/enrollments/:enrollmentId/due',
+    manage,
+    trial,
+    uuidParam('enrollmentId', 'enrollment'),
+    validate({ body: dueOverrideSchema }),
+    async (req, res) => {
+      await loadTrial(studioId(res), trialId(req));
+      const enrollment = await Enrollment.findOne({ where: { id: String(req.params.enrollmentId), trialId: trialId(req) } });
+      if (!enrollment) throw notFound('enrollment');
+      const { kind, dueAt } = res.locals.body as { kind: string; dueAt: string | null };
+      const overrides = { ...enrollment.dueOverrides };
+      if (dueAt) overrides[kind] = new Date(dueAt).toISOString();
+      else delete overrides[kind];
+      await enrollment.update({ dueOverrides: overrides });
+      res.json({ id: enrollment.id, dueOverrides: overrides });
+    },
+  );
+  return router;
+}
