@@ -1,16 +1,71 @@
-import { PlannedSection } from '@/components/ui/planned-section';
+import { Link } from 'expo-router';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import { describeInstant } from '@/components/trials/dates';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
+import { Empty, LoadError, Loading } from '@/components/ui/states';
+import { AppText } from '@/components/ui/text';
+import { colors, fonts, space } from '@/constants/theme';
+import { useSession } from '@/hooks/use-session';
+import { useMyTrials, withdrawApplication } from '@/hooks/use-trials';
+
+const STATUS_WORDS = {
+  applied: 'Applied: waiting for the studio’s choice',
+  shortlisted: 'Shortlisted: waiting for the studio’s choice',
+  selected: 'You are testing',
+  waitlisted: 'On the waiting list',
+  declined: 'Not chosen this time',
+  withdrawn: 'Withdrawn',
+} as const;
 
 export default function MyTrialsScreen() {
+  const { session } = useSession();
+  const { data, error, mutate } = useMyTrials();
+  const [failure, setFailure] = useState<string | null>(null);
+  const zone = session?.user.timeZone ?? 'UTC';
   return (
-    <Screen title="My trials" intro="The trials you applied to or test in.">
-      <PlannedSection
-        items={[
-          "Each trial with its next due date and what is expected",
-          "The draft files you may download",
-          "Your size advice, check-in and final report",
-        ]}
-      />
+    <Screen title="My trials" intro="The trials you applied to or test in, with what is due next.">
+      {failure ? <Notice tone="error">{failure}</Notice> : null}
+      {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
+      {!data && !error ? <Loading /> : null}
+      {data && data.length === 0 ? <Empty>No trials yet. A studio’s call for testers has a link to apply.</Empty> : null}
+      {data?.map((t) => (
+        <Card key={t.applicationId} title={t.trial.title}>
+          <AppText style={styles.status}>{`${STATUS_WORDS[t.status]}${t.size ? ` · size ${t.size.label}` : ''} · ${t.trial.studioName}`}</AppText>
+          {t.next ? (
+            <View style={styles.next} aria-label="Next due">
+              <AppText style={styles.strong}>{`Next: ${t.next.label}, ${describeInstant(t.next.dueAt, zone)}${t.next.extended ? ' (extended for you)' : ''}`}</AppText>
+              <AppText variant="caption">{t.next.expects}</AppText>
+            </View>
+          ) : null}
+          {t.dues.map((d) => (
+            <AppText key={d.kind} variant="caption">{`${d.label}: ${describeInstant(d.dueAt, zone)}`}</AppText>
+          ))}
+          {t.status === 'selected' ? (
+            <Link href={{ pathname: '/size-advice/[patternId]', params: { patternId: t.trial.patternId } }} style={styles.link}>
+              My size advice
+            </Link>
+          ) : null}
+          {t.status !== 'withdrawn' && t.status !== 'declined' ? (
+            <Button
+              label="Withdraw"
+              accessibleLabel={`Withdraw from ${t.trial.title}`}
+              tone="danger"
+              onPress={() => withdrawApplication(t.applicationId).catch((e: Error) => setFailure(e.message))}
+            />
+          ) : null}
+        </Card>
+      ))}
     </Screen>
   );
 }
+
+const styles = StyleSheet.create({
+  status: { fontFamily: fonts.medium },
+  next: { backgroundColor: colors.threadSoft, padding: space.md, borderRadius: 8, gap: 2 },
+  strong: { fontFamily: fonts.semibold },
+  link: { color: colors.thread, fontFamily: fonts.semibold, paddingVertical: space.sm },
+});
