@@ -1,5 +1,6 @@
 import dayjs from 'dayjs';
 import { Link } from 'expo-router';
+import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { NewTrialForm } from '@/components/trials/new-trial-form';
 import { Card } from '@/components/ui/card';
@@ -15,7 +16,8 @@ import { TRIAL_STATE_LABELS } from '@/server/domain/trials';
 export default function TrialsScreen() {
   const { currentStudio } = useSession();
   const { data, error, mutate } = useTrials(currentStudio?.id);
-  const now = Date.now();
+  // The time the list was opened: the next milestone is judged against it.
+  const [now] = useState(() => Date.now());
   return (
     <Screen title="Trials" intro="Every fit trial of the studio, from the call for testers to the release.">
       {currentStudio && can(currentStudio.role, 'trials.write') ? <NewTrialForm studioId={currentStudio.id} /> : null}
