@@ -30,7 +30,7 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await page.getByLabel('Studio name').fill('Slipstitch Studio');
     await page.getByLabel('Time zone').fill('Europe/Lisbon');
     await page.getByRole('button', { name: 'Create studio' }).click();
-    await page.getByRole('heading', { name: 'Trials' }).waitFor();
+    await page.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
     await page.getByText('Slipstitch Studio · Owner').waitFor();
 
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Members' }).click();
@@ -66,7 +66,7 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await phone.getByRole('button', { name: 'Create account' }).click();
 
     await phone.getByRole('button', { name: 'Accept the invitation' }).click();
-    await phone.getByRole('heading', { name: 'Trials' }).waitFor();
+    await phone.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
     await phone.getByText('Slipstitch Studio · Grader').waitFor();
     await phone.getByText('Read-only').waitFor();
     const nav = phone.getByRole('navigation', { name: 'Sections' });
