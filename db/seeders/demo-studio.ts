@@ -1,7 +1,10 @@
 import bcrypt from 'bcryptjs';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Role } from '../../server/domain/roles';
-import { FabricNeed, Membership, Pattern, PatternSize, PatternVariant, Studio, User } from '../models';
+import { proposeSelection } from '../../server/domain/coverage';
+import type { MeasurementKey } from '../../server/domain/measurements';
+import { adviseSize } from '../../server/domain/size-advice';
+import { Application, Enrollment, FabricNeed, Membership, Milestone, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User } from '../models';
 
 /**
  * The demo studio: an invented small pattern brand with its staff and a few volunteer testers.
@@ -78,6 +81,119 @@ async function seedDemoPattern(studio: Studio, transaction: Transaction) {
   await FabricNeed.bulkCreate(needs, { transaction });
 }
 
+export const DEMO_TRIAL_SLUG = 'wide-leg-trousers-demo';
+const APPLICANTS = 40;
+
+/**
+ * The demo trial of the demo trousers: forty invented applicants spread over the size range and
+ * heights (a deterministic spread, no randomness), two testers wanted per size, and the automatic
+ * selection's picks selected. Dates are set relative to the moment the demo is first loaded.
+ */
+async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: Transaction) {
+  if (await Trial.findOne({ where: { slug: DEMO_TRIAL_SLUG }, transaction })) return;
+  const pattern = (await Pattern.findOne({
+    where: { studioId: studio.id, name: DEMO_PATTERN_NAME },
+    include: [{ model: PatternSize, as: 'sizes' }, { model: PatternVariant, as: 'variants' }],
+    order: [[{ model: PatternSize, as: 'sizes' }, 'position', 'ASC']],
+    transaction,
+  }))!;
+  const sizes = pattern.sizes!;
+  const day = 86_400_000;
+  const now = Date.now();
+  const trial = await Trial.create(
+    {
+      studioId: studio.id,
+      patternId: pattern.id,
+      slug: DEMO_TRIAL_SLUG,
+      title: 'Wide-leg trousers: first fit round (demo)',
+      callText: 'We are testing our high-waisted wide-leg trousers in sizes 0 to 20 and would love testers of every height.',
+      requirements: 'A mid-weight woven with drape (linen, viscose twill, tencel). Photos front, side and back of the toile and the finished pair.',
+      state: 'running',
+      coverage: {
+        sizes: sizes.map((s) => ({ sizeId: s.id, target: 2 })),
+        heightBands: [
+          { id: 'petite', label: 'Petite', minMm: null, maxMm: 1600 },
+          { id: 'regular', label: 'Regular', minMm: 1600, maxMm: 1720 },
+          { id: 'tall', label: 'Tall', minMm: 1720, maxMm: null },
+        ],
+        variants: (pattern.variants ?? []).map((v) => v.id),
+      },
+    },
+    { transaction },
+  );
+  // Days from the moment of seeding. The final report is due tomorrow, so the reminders have
+  // something to remind of.
+  const dates: [string, number][] = [
+    ['applications-close', -14],
+    ['selection', -12],
+    ['drafts-out', -10],
+    ['toile-check-in', -4],
+    ['final-report', 1],
+    ['release', 30],
+  ];
+  for (const [kind, offset] of dates) {
+    const dueAt = new Date(now + offset * day);
+    await Milestone.create({ trialId: trial.id, kind: kind as never, dueAt }, { transaction });
+  }
+  const chart = {
+    sizes: sizes.map((s) => ({ id: s.id, label: s.label, bodyMm: s.bodyMm as Partial<Record<MeasurementKey, number>> })),
+    draftedHeightMm: pattern.draftedHeightMm,
+    variants: [],
+  };
+  const applicants = [];
+  for (let i = 0; i < APPLICANTS; i += 1) {
+    const n = String(i + 1).padStart(2, '0');
+    // Hips from 33 to 49 in, heights from 150 to 186 cm, interleaved so sizes and heights mix.
+    const hipIn = 33 + ((i * 7) % 41) * 0.4;
+    const heightMm = 1500 + ((i * 13) % 37) * 10;
+    const measurementsMm = { hip: hipIn * IN, waist: (hipIn - 9.5 - (i % 3) * 0.5) * IN, height: heightMm, inseam: (heightMm * 0.45) };
+    const [user] = await User.findOrCreate({
+      where: { email: `applicant${n}@demo.basted.test` },
+      defaults: { email: `applicant${n}@demo.basted.test`, name: `Demo Applicant ${n}`, passwordHash },
+      transaction,
+    });
+    await TesterProfile.findOrCreate({ where: { userId: user.id }, defaults: { userId: user.id, measurementsMm, experience: ['beginner', 'confident', 'advanced'][i % 3] }, transaction });
+    const advice = adviseSize({ category: 'trousers', fabricKind: 'woven', chart, body: measurementsMm, settings: { fullerBellyMarginMm: 25.4 }, unit: 'in' });
+    const app = await Application.create(
+      {
+        trialId: trial.id,
+        userId: user.id,
+        sizeId: advice.size?.id ?? null,
+        variantId: null,
+        profileSnapshot: { name: user.name, email: user.email, measurementsMm },
+        adviceSnapshot: advice as unknown as Record<string, unknown>,
+        plannedFabric: ['Mid-weight linen', 'Viscose twill', 'Tencel twill', 'Cotton drill'][i % 4],
+        experience: ['beginner', 'confident', 'advanced'][i % 3],
+        photoConsent: i % 4 === 0 ? 'may-share' : 'staff-only',
+        appliedAt: new Date(now - (20 - (i % 5)) * day + i * 60_000),
+      },
+      { transaction },
+    );
+    applicants.push({ app, heightMm });
+  }
+  const proposal = proposeSelection(
+    { sizes: sizes.map((s) => ({ id: s.id, label: s.label, target: 2 })), heightBands: trial.coverage.heightBands, variants: [] },
+    applicants.map(({ app, heightMm }) => ({
+      id: app.id,
+      appliedAt: app.appliedAt.toISOString(),
+      status: 'applied' as const,
+      sizeId: app.sizeId,
+      variantId: null,
+      heightMm,
+      reliability: { finishedOnTime: 0, enrolled: 0 },
+    })),
+  );
+  for (const pick of proposal.picks) {
+    const { app } = applicants.find((a) => a.app.id === pick.applicantId)!;
+    await app.update({ status: 'selected', decidedAt: new Date(now - 12 * day), decisionReason: pick.reason.slice(0, 500) }, { transaction });
+    await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: app.userId, sizeId: app.sizeId!, variantId: null }, { transaction });
+    await Membership.findOrCreate({ where: { studioId: studio.id, userId: app.userId }, defaults: { studioId: studio.id, userId: app.userId, role: 'tester' }, transaction });
+  }
+  for (const left of proposal.leftOut.filter((l) => l.waitlistRank !== null && l.waitlistRank <= 2)) {
+    await applicants.find((a) => a.app.id === left.applicantId)!.app.update({ status: 'waitlisted', decidedAt: new Date(now - 12 * day) }, { transaction });
+  }
+}
+
 /** Creates whatever of the demo studio is missing; running it again changes nothing. */
 export async function seedDemoStudio(sequelize: Sequelize, bcryptCost = 10): Promise<void> {
   await sequelize.transaction(async (transaction) => {
@@ -100,5 +216,6 @@ export async function seedDemoStudio(sequelize: Sequelize, bcryptCost = 10): Pro
       });
     }
     await seedDemoPattern(studio, transaction);
+    await seedDemoTrial(studio, passwordHash, transaction);
   });
 }

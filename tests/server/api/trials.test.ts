@@ -152,6 +152,16 @@ describe('trials: call, applications, coverage, selection, enrollments', () => {
     const waitlist = await request(t.app).post(`${base}/decisions`).set(staff('coordinator')).send({ applicationIds: [left], status: 'waitlisted' });
     expect(waitlist.status).toBe(200);
 
+    // The grid agrees with the stored applications.
+    const gridAfter = await request(t.app).get(`${base}/coverage`).set(staff('coordinator'));
+    expect(gridAfter.body.totals.selected).toBe(await Application.count({ where: { trialId: trial.id, status: 'selected' } }));
+    expect(gridAfter.body.totals.waitlisted).toBe(1);
+    expect(gridAfter.body.totals.applicants).toBe(await Application.count({ where: { trialId: trial.id } }));
+    for (const row of gridAfter.body.rows as { sizeId: string; selected: number; target: number }[]) {
+      expect(row.selected).toBe(await Application.count({ where: { trialId: trial.id, status: 'selected', sizeId: row.sizeId } }));
+      expect(row.selected).toBeLessThanOrEqual(row.target);
+    }
+
     const chosen = await Application.findAll({ where: { trialId: trial.id, status: 'selected' } });
     const chosenUsers = testers.filter((u) => chosen.some((a) => a.userId === u.id));
     for (const u of chosenUsers) {
