@@ -64,6 +64,7 @@ export const trialKeys = {
   one: (studioId: string, trialId: string) => `/api/studios/${studioId}/trials/${trialId}`,
   applications: (studioId: string, trialId: string) => `/api/studios/${studioId}/trials/${trialId}/applications`,
   coverage: (studioId: string, trialId: string) => `/api/studios/${studioId}/trials/${trialId}/coverage`,
+  enrollments: (studioId: string, trialId: string) => `/api/studios/${studioId}/trials/${trialId}/enrollments`,
   call: (slug: string) => `/api/calls/${encodeURIComponent(slug)}`,
   mine: '/api/me/trials',
 };
@@ -101,6 +102,7 @@ export async function decide(studioId: string, trialId: string, applicationIds: 
   });
   await mutate(trialKeys.applications(studioId, trialId));
   await mutate(trialKeys.coverage(studioId, trialId));
+  await mutate(trialKeys.enrollments(studioId, trialId));
   return result;
 }
 

@@ -11,6 +11,7 @@ import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
 import { colors, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
+import { useProfile } from '@/hooks/use-profile';
 import { applyToCall, trialKeys, type PublicCall } from '@/hooks/use-trials';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, type Experience } from '@/server/domain/schemas/profile';
 import type { SizeAdvice } from '@/server/domain/size-advice';
@@ -24,7 +25,10 @@ export function ApplyForm({ call, describeDue }: Props) {
   const [sizeId, setSizeId] = useState<string | null>(null);
   const [variantId, setVariantId] = useState<string | null>(null);
   const [plannedFabric, setPlannedFabric] = useState('');
-  const [experience, setExperience] = useState<Experience | null>(null);
+  const { data: profile } = useProfile();
+  const [chosenExperience, setExperience] = useState<Experience | null>(null);
+  // Prefilled from the profile until the tester picks another level.
+  const experience = chosenExperience ?? ((profile?.experience as Experience | null | undefined) ?? null);
   const [confirmed, setConfirmed] = useState(false);
   const [photoConsent, setPhotoConsent] = useState<'staff-only' | 'may-share' | null>(null);
   const [note, setNote] = useState('');

@@ -1,5 +1,6 @@
 import express, { Router } from 'express';
-import { Enrollment } from '../../db/models';
+import { Enrollment, User } from '../../db/models';
+import { MILESTONE_LABELS, TESTER_MILESTONES } from '../domain/trials';
 import type { AppDeps } from '../app';
 import { requireStudio } from '../auth/guards';
 import { createTrialSchema, decideSchema, dueOverrideSchema, updateTrialSchema } from '../domain/schemas/trials';
@@ -8,7 +9,7 @@ import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { sendDecisionMail } from './trial-mail';
 import { serializeApplication, serializeTrial } from './trial-serializer';
-import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, proposalFor, updateTrial } from './trials.service';
+import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
 
 /** Mounted at /api/studios/:studioId/trials. */
 export function trialsRouter(deps: AppDeps): Router {
@@ -53,6 +54,25 @@ export function trialsRouter(deps: AppDeps): Router {
     const effects = await decide(studioId(res), trialId(req), res.locals.body);
     await sendDecisionMail(await loadTrial(studioId(res), trialId(req)), effects, deps);
     res.json({ selected: effects.selected.length, waitlisted: effects.waitlisted.length, declined: effects.declined.length });
+  });
+
+  // The enrolled testers with their own dates (the trial's, or the ones granted to them).
+  router.get('/:trialId/enrollments', manage, trial, async (req, res) => {
+    const found = await loadTrial(studioId(res), trialId(req));
+    const dues = milestoneMap(found);
+    const labels = new Map((found.pattern?.sizes ?? []).map((s) => [s.id, s.label]));
+    const rows = await Enrollment.findAll({ where: { trialId: found.id }, include: [{ model: User, as: 'user' }], order: [['createdAt', 'ASC']] });
+    res.json(
+      rows.map((e) => ({
+        id: e.id,
+        status: e.status,
+        tester: { name: (e as Enrollment & { user?: User }).user?.name ?? '' },
+        size: { id: e.sizeId, label: labels.get(e.sizeId) ?? '?' },
+        dues: TESTER_MILESTONES.flatMap((kind) =>
+          dues[kind] ? [{ kind, label: MILESTONE_LABELS[kind], dueAt: e.dueOverrides[kind] ?? dues[kind]!.toISOString(), extended: Boolean(e.dueOverrides[kind]) }] : [],
+        ),
+      })),
+    );
   });
 
   // More time for one tester: a per-milestone date that replaces the trial's for them alone.

@@ -105,6 +105,14 @@ describe('a fit trial from call to selection, in Chromium', () => {
     await testerA.goto('/my-trials');
     await testerA.getByText('You are testing · size 10 · Flow Studio').waitFor();
     await testerA.getByText(/^Next: Toile check-in due, /).waitFor();
+
+    // The coordinator gives this one tester three more days for the toile.
+    await page.getByRole('button', { name: 'Give Tess Tester more time: Toile check-in due' }).click();
+    await page.getByLabel('New date for Tess Tester, toile check-in due').fill(at(17));
+    await page.getByRole('button', { name: 'Save the new date' }).click();
+    await page.getByText('New date saved for this tester.').waitFor();
+    await testerA.reload();
+    await testerA.getByText(/^Next: Toile check-in due, .*\(extended for you\)$/).waitFor();
     await testerA.screenshot({ path: path.join(SCREENSHOT_DIR, 'my-trials-phone.png'), fullPage: true });
     expect(h.errors).toEqual([]);
   });

@@ -173,6 +173,10 @@ const MATRIX: Record<string, Row> = {
     allow: MANAGERS,
     call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/decisions`, body: { applicationIds: [c.otherApplicationId], status: 'shortlisted' } }),
   },
+  'GET /api/studios/:studioId/trials/:trialId/enrollments': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/enrollments` }),
+  },
   'PATCH /api/studios/:studioId/trials/:trialId/enrollments/:enrollmentId/due': {
     allow: MANAGERS,
     call: (c) => ({

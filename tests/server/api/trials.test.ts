@@ -184,6 +184,11 @@ describe('trials: call, applications, coverage, selection, enrollments', () => {
     await request(t.app).patch(`${base}/enrollments/${enrollment!.id}/due`).set(staff('coordinator')).send({ kind: 'toile-check-in', dueAt: later }).expect(200);
     const after = await request(t.app).get('/api/me/trials').set(as(chosenUsers[0]));
     expect(after.body[0].next).toMatchObject({ kind: 'toile-check-in', extended: true, dueAt: later });
+    const roster = await request(t.app).get(`${base}/enrollments`).set(staff('coordinator'));
+    expect(roster.body).toHaveLength(3);
+    const extended = roster.body.find((e: { id: string }) => e.id === enrollment!.id);
+    expect(extended.dues.find((d: { kind: string }) => d.kind === 'toile-check-in')).toMatchObject({ extended: true, dueAt: later });
+    expect(roster.body.filter((e: { dues: { extended: boolean }[] }) => e.dues.some((d) => d.extended))).toHaveLength(1);
   });
 
   it('a full size cannot be over-filled by two coordinators selecting at the same moment', async () => {
