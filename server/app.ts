@@ -12,6 +12,7 @@ import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { callsRouter, myTrialsRouter } from './calls/calls.routes';
+import { draftLinksRouter } from './drafts/drafts.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
@@ -36,6 +37,7 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/me', profileRouter());
   api.use('/me', myTrialsRouter(deps));
   api.use('/calls', callsRouter(deps));
+  api.use(draftLinksRouter(deps));
   api.use(apiNotFound);
   return api;
 }

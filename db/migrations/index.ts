@@ -4,6 +4,7 @@ import * as accounts from './0001-accounts';
 import * as profiles from './0002-profiles-and-invitations';
 import * as patterns from './0003-patterns';
 import * as trials from './0004-trials';
+import * as drafts from './0005-drafts';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -13,4 +14,5 @@ export const migrations: Migration[] = [
   { name: '0002-profiles-and-invitations', ...profiles },
   { name: '0003-patterns', ...patterns },
   { name: '0004-trials', ...trials },
+  { name: '0005-drafts', ...drafts },
 ];

@@ -1,5 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import { Application } from './application';
+import { Draft, DraftDownload, DraftFile } from './draft';
 import { Enrollment } from './enrollment';
 import { FabricNeed } from './fabric-need';
 import { Invitation } from './invitation';
@@ -14,7 +15,7 @@ import { TesterProfile } from './tester-profile';
 import { Trial } from './trial';
 import { User } from './user';
 
-export { Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
+export { Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -32,6 +33,9 @@ export function initModels(sequelize: Sequelize): void {
   Milestone.initModel(sequelize);
   Application.initModel(sequelize);
   Enrollment.initModel(sequelize);
+  Draft.initModel(sequelize);
+  DraftFile.initModel(sequelize);
+  DraftDownload.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -62,4 +66,11 @@ export function initModels(sequelize: Sequelize): void {
   Enrollment.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
   Enrollment.belongsTo(Application, { as: 'application', foreignKey: 'applicationId' });
   Enrollment.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+  Pattern.hasMany(Draft, { as: 'drafts', foreignKey: 'patternId' });
+  Draft.belongsTo(Pattern, { as: 'pattern', foreignKey: 'patternId' });
+  Draft.hasMany(DraftFile, { as: 'files', foreignKey: 'draftId' });
+  DraftFile.belongsTo(Draft, { as: 'draft', foreignKey: 'draftId' });
+  DraftFile.hasMany(DraftDownload, { as: 'downloads', foreignKey: 'draftFileId' });
+  DraftDownload.belongsTo(DraftFile, { as: 'file', foreignKey: 'draftFileId' });
+  DraftDownload.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 }

@@ -88,3 +88,13 @@ export function declinedMail(input: TrialMail): MailContent {
   const footer = 'Your profile stays ready for the next call.';
   return { subject: `About your application: ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'Open My trials', url: input.link }, footer) };
 }
+
+export function newDraftMail(input: TrialMail & { version: number; changeNote: string }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `Draft ${input.version} of "${input.trialTitle}" is out. What changed: ${input.changeNote}`,
+    'Download the new files from My trials before you cut: sew the newest draft unless the studio tells you otherwise.',
+  ];
+  const footer = 'You receive this because you are testing this pattern.';
+  return { subject: `New draft ${input.version}: ${input.trialTitle}`, text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`, html: layout(lines, { label: 'Open My trials', url: input.link }, footer) };
+}

@@ -1,4 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { MulterError } from 'multer';
 import { ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
 import { ZodError } from 'zod';
 import { AppError } from '../errors';
@@ -31,6 +32,13 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
     const fields: Record<string, string> = {};
     for (const item of err.errors) if (item.path) fields[item.path] = 'is already taken';
     return { status: 409, body: { error: { code: 'conflict', message: 'That already exists.', fields } } };
+  }
+  if (err instanceof MulterError) {
+    const field = err.field ?? 'file';
+    if (err.code === 'LIMIT_FILE_SIZE') {
+      return { status: 413, body: { error: { code: 'file_too_large', message: `The file for ${field} is too large.`, fields: { [field]: 'is too large' } } } };
+    }
+    return { status: 400, body: { error: { code: 'invalid_upload', message: `The upload could not be taken: ${err.message}.`, fields: { [field]: err.message } } } };
   }
   if (err instanceof ForeignKeyConstraintError) {
     // A last line of defence: services check references first and say which ones.

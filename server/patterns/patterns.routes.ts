@@ -1,6 +1,8 @@
 import express, { Router } from 'express';
 import { z } from 'zod';
+import type { AppDeps } from '../app';
 import { requireStudio } from '../auth/guards';
+import { patternDraftsRouter } from '../drafts/drafts.routes';
 import { FINISHED_MEASUREMENTS } from '../domain/garments';
 import { MEASUREMENTS } from '../domain/measurements';
 import { adviceRequestSchema, chartSchema, createPatternSchema, fabricNeedsSchema, updatePatternSchema } from '../domain/schemas/patterns';
@@ -20,7 +22,7 @@ const CSV_CATALOG: CsvColumn[] = [
 const listQuery = z.object({ archived: z.enum(['true', 'false'], { error: 'must be true or false' }).optional() });
 
 /** Mounted at /api/studios/:studioId/patterns. */
-export function patternsRouter(): Router {
+export function patternsRouter(deps: AppDeps): Router {
   const router = Router({ mergeParams: true });
   const studioId = (res: express.Response) => res.locals.membership!.studioId;
   const read = requireStudio('patterns.read', 'see patterns');
@@ -118,6 +120,8 @@ export function patternsRouter(): Router {
       res.json(serializePattern(await saveChart(studioId(res), String(req.params.patternId), chart.data)));
     },
   );
+
+  router.use('/:patternId/drafts', patternDraftsRouter(deps));
 
   // Advice for the caller's own saved measurements; testers included (see the policy).
   router.get('/:patternId/size-advice', requireStudio('patterns.adviseSelf', 'get size advice'), pattern, async (req, res) => {

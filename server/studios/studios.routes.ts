@@ -50,7 +50,7 @@ export function studiosRouter(deps: AppDeps): Router {
 
   router.use('/:studioId/members', membersRouter());
   router.use('/:studioId/invitations', invitationsRouter(deps));
-  router.use('/:studioId/patterns', patternsRouter());
+  router.use('/:studioId/patterns', patternsRouter(deps));
   router.use('/:studioId/trials', trialsRouter(deps));
   return router;
 }

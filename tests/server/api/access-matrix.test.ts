@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Application, Enrollment, Invitation, Pattern, PatternSize, Trial } from '../../../db/models';
+import { Application, Draft, DraftFile, Enrollment, Invitation, Pattern, PatternSize, Trial } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
 import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
@@ -24,10 +24,16 @@ type Ctx = StudioWorld & {
   trialSlug: string;
   enrollmentId: string;
   otherApplicationId: string;
+  draftFileId: string;
   /** An application of the caller's own (every signed-in persona has one). */
   ownApplicationId: string | null;
 };
-type Row = { allow: readonly Persona[]; call: (ctx: Ctx) => { path: string; body?: object } };
+type Row = {
+  allow: readonly Persona[];
+  call: (ctx: Ctx) => { path: string; body?: object };
+  /** Refused by ownership (not by role): every signed-in outsider gets 404, so nothing is revealed. */
+  hidden?: boolean;
+};
 
 const EVERYONE = PERSONAS;
 const SIGNED_IN = PERSONAS.filter((p) => p !== 'anonymous');
@@ -184,6 +190,26 @@ const MATRIX: Record<string, Row> = {
       body: { kind: 'final-report', dueAt: new Date(Date.now() + 30 * 86_400_000).toISOString() },
     }),
   },
+  'GET /api/studios/:studioId/patterns/:patternId/drafts': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/drafts` }),
+  },
+  // Without files: allowed callers get past the checks to a 400; the upload itself is tested elsewhere.
+  'POST /api/studios/:studioId/patterns/:patternId/drafts': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/patterns/${c.patternId}/drafts`, body: { changeNote: 'Draft two' } }),
+  },
+  // Only the trial's staff and its enrolled testers (the "other" enrolment belongs to someone else).
+  'GET /api/me/trials/:trialId/drafts': {
+    allow: STAFF,
+    hidden: true,
+    call: (c) => ({ path: `/api/me/trials/${c.trialId}/drafts` }),
+  },
+  'POST /api/draft-files/:fileId/link': {
+    allow: STAFF,
+    hidden: true,
+    call: (c) => ({ path: `/api/draft-files/${c.draftFileId}/link` }),
+  },
   'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
   'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
   'POST /api/calls/:slug/applications': {
@@ -216,8 +242,9 @@ function userOf(world: StudioWorld, persona: Persona) {
   }
 }
 
-function expectedDenial(persona: Persona): number {
+function expectedDenial(persona: Persona, hidden = false): number {
   if (persona === 'anonymous') return 401;
+  if (hidden) return 404;
   return (MEMBERS_HERE as readonly string[]).includes(persona) ? 403 : 404;
 }
 
@@ -273,6 +300,8 @@ describe('access matrix', () => {
         status: 'selected',
       });
       const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: otherApp.id, userId: otherApp.userId, sizeId: size.id, variantId: null });
+      const draft = await Draft.create({ patternId: pattern.id, version: 1, changeNote: 'First', createdById: null });
+      const draftFile = await DraftFile.create({ draftId: draft.id, kind: 'print-a4', originalName: 'a4.pdf', objectKey: `drafts/${draft.id}.pdf`, bytes: 10 });
       let ownApplicationId: string | null = null;
       if (user) {
         const ownTrial = await Trial.create({ studioId: world.studio.id, patternId: pattern.id, slug: `own-${token.slice(0, 12).toLowerCase()}`, title: 'Own', state: 'open', coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] } });
@@ -291,6 +320,7 @@ describe('access matrix', () => {
         trialSlug: trial.slug,
         enrollmentId: enrollment.id,
         otherApplicationId: otherApp.id,
+        draftFileId: draftFile.id,
         ownApplicationId,
       });
       const [method] = route.split(' ');
@@ -302,7 +332,7 @@ describe('access matrix', () => {
         expect({ persona, status: res.status, denied: [401, 403, 404].includes(res.status) }).toMatchObject({ denied: false });
         expect(res.status).toBeLessThan(500);
       } else {
-        expect({ persona, status: res.status }).toEqual({ persona, status: expectedDenial(persona) });
+        expect({ persona, status: res.status }).toEqual({ persona, status: expectedDenial(persona, row.hidden) });
         expect(res.body.error.code).toEqual(expect.any(String));
       }
     });
