@@ -21,9 +21,11 @@ type Options = {
   body?: unknown;
   /** Sent as it is, e.g. a CSV file's text, with its own content type. */
   text?: { content: string; type: string };
+  /** Sent as multipart form data (file uploads); the browser sets the boundary. */
+  form?: FormData;
 };
 
-export async function api<T>(path: string, { method = 'GET', body, text }: Options = {}): Promise<T> {
+export async function api<T>(path: string, { method = 'GET', body, text, form }: Options = {}): Promise<T> {
   let res: Response;
   try {
     res = await fetch(path, {
@@ -31,9 +33,9 @@ export async function api<T>(path: string, { method = 'GET', body, text }: Optio
       credentials: 'same-origin',
       headers: {
         Accept: 'application/json',
-        ...(text ? { 'Content-Type': text.type } : body !== undefined ? { 'Content-Type': 'application/json' } : {}),
+        ...(form ? {} : text ? { 'Content-Type': text.type } : body !== undefined ? { 'Content-Type': 'application/json' } : {}),
       },
-      body: text ? text.content : body === undefined ? undefined : JSON.stringify(body),
+      body: form ?? (text ? text.content : body === undefined ? undefined : JSON.stringify(body)),
     });
   } catch {
     throw new ApiError(0, 'offline', 'Basted cannot be reached. Check your connection and try again.');

@@ -1,7 +1,9 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { DraftFiles } from '@/components/drafts/drafts-panel';
 import { describeInstant } from '@/components/trials/dates';
+import { useTrialDrafts } from '@/hooks/use-drafts';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
@@ -11,6 +13,22 @@ import { AppText } from '@/components/ui/text';
 import { colors, fonts, space } from '@/constants/theme';
 import { useSession } from '@/hooks/use-session';
 import { useMyTrials, withdrawApplication } from '@/hooks/use-trials';
+
+/** The draft files of a trial the tester is enrolled in, newest first. */
+function TrialDrafts({ trialId, onError }: { trialId: string; onError: (message: string) => void }) {
+  const { data } = useTrialDrafts(trialId);
+  if (!data || data.length === 0) return <AppText variant="caption">No draft files yet: you will get an e-mail when they are out.</AppText>;
+  return (
+    <View style={styles.drafts}>
+      {data.map((d, i) => (
+        <View key={d.id}>
+          <AppText style={styles.strong}>{`Draft ${d.version}${i === 0 ? ' (newest)' : ''}: ${d.changeNote}`}</AppText>
+          <DraftFiles draft={d} onError={onError} />
+        </View>
+      ))}
+    </View>
+  );
+}
 
 const STATUS_WORDS = {
   applied: 'Applied: waiting for the studio’s choice',
@@ -44,6 +62,7 @@ export default function MyTrialsScreen() {
           {t.dues.map((d) => (
             <AppText key={d.kind} variant="caption">{`${d.label}: ${describeInstant(d.dueAt, zone)}`}</AppText>
           ))}
+          {t.status === 'selected' && t.enrollment?.status === 'active' ? <TrialDrafts trialId={t.trial.id} onError={setFailure} /> : null}
           {t.status === 'selected' ? (
             <Link href={{ pathname: '/size-advice/[patternId]', params: { patternId: t.trial.patternId } }} style={styles.link}>
               My size advice
@@ -68,4 +87,5 @@ const styles = StyleSheet.create({
   next: { backgroundColor: colors.threadSoft, padding: space.md, borderRadius: 8, gap: 2 },
   strong: { fontFamily: fonts.semibold },
   link: { color: colors.thread, fontFamily: fonts.semibold, paddingVertical: space.sm },
+  drafts: { gap: space.sm },
 });

@@ -2,6 +2,7 @@ import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { ChartEditor } from '@/components/patterns/chart-editor';
 import { CautionsPanel } from '@/components/patterns/cautions-panel';
+import { DraftsPanel } from '@/components/drafts/drafts-panel';
 import { CsvPanel } from '@/components/patterns/csv-panel';
 import { FabricNeedsEditor } from '@/components/patterns/fabric-needs-editor';
 import { PatternDetailsForm } from '@/components/patterns/pattern-details-form';
@@ -47,6 +48,7 @@ export default function PatternScreen() {
       <ChartEditor key={`chart-${generation}`} studioId={studioId} pattern={pattern} unit={session.user.lengthUnit} canEdit={canEdit} />
       <CsvPanel studioId={studioId} patternId={pattern.id} canEdit={canEdit} onImported={() => setGeneration((g) => g + 1)} />
       <FabricNeedsEditor key={`fabric-${generation}-${pattern.chart.sizes.length}`} studioId={studioId} pattern={pattern} lengthUnit={session.user.lengthUnit} fabricUnit={session.user.fabricUnit} canEdit={canEdit} />
+      <DraftsPanel studioId={studioId} patternId={pattern.id} canUpload={canEdit} />
       <TryAdvicePanel studioId={studioId} patternId={pattern.id} category={pattern.category as GarmentCategory} columns={pattern.chart.bodyColumns} unit={session.user.lengthUnit} />
       {canEdit ? (
         <Button
