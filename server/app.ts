@@ -13,6 +13,7 @@ import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { callsRouter, myTrialsRouter } from './calls/calls.routes';
 import { draftLinksRouter } from './drafts/drafts.routes';
+import { photosRouter } from './photos/photos.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
@@ -38,6 +39,7 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/me', myTrialsRouter(deps));
   api.use('/calls', callsRouter(deps));
   api.use(draftLinksRouter(deps));
+  api.use(photosRouter(deps));
   api.use(apiNotFound);
   return api;
 }

@@ -5,6 +5,7 @@ import * as profiles from './0002-profiles-and-invitations';
 import * as patterns from './0003-patterns';
 import * as trials from './0004-trials';
 import * as drafts from './0005-drafts';
+import * as photos from './0006-photos';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -15,4 +16,5 @@ export const migrations: Migration[] = [
   { name: '0003-patterns', ...patterns },
   { name: '0004-trials', ...trials },
   { name: '0005-drafts', ...drafts },
+  { name: '0006-photos', ...photos },
 ];

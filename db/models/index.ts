@@ -7,6 +7,7 @@ import { Invitation } from './invitation';
 import { Membership } from './membership';
 import { Milestone } from './milestone';
 import { PasswordReset } from './password-reset';
+import { Photo } from './photo';
 import { Pattern } from './pattern';
 import { PatternSize } from './pattern-size';
 import { PatternVariant } from './pattern-variant';
@@ -15,7 +16,7 @@ import { TesterProfile } from './tester-profile';
 import { Trial } from './trial';
 import { User } from './user';
 
-export { Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
+export { Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -36,6 +37,7 @@ export function initModels(sequelize: Sequelize): void {
   Draft.initModel(sequelize);
   DraftFile.initModel(sequelize);
   DraftDownload.initModel(sequelize);
+  Photo.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -73,4 +75,6 @@ export function initModels(sequelize: Sequelize): void {
   DraftFile.hasMany(DraftDownload, { as: 'downloads', foreignKey: 'draftFileId' });
   DraftDownload.belongsTo(DraftFile, { as: 'file', foreignKey: 'draftFileId' });
   DraftDownload.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+  Enrollment.hasMany(Photo, { as: 'photos', foreignKey: 'enrollmentId' });
+  Photo.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
 }

@@ -4,11 +4,12 @@ import { Application, Enrollment, Trial } from '../../db/models';
 import { addMember, bearer, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { waitForMessage } from '../support/inbox';
+import { tinyPdf } from '../support/sample-files';
 
 const WIDE = { width: 1280, height: 800 };
 const PHONE = { width: 390, height: 844 };
-// A minimal PDF: the "%PDF-" header identifies it (ISO 32000-1, 7.5.2).
-const PDF = Buffer.from('%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n');
+// A small valid PDF built in code (see tests/support/sample-files.ts).
+const PDF = tinyPdf();
 
 describe('draft files in Chromium', () => {
   let h: BrowserHarness;

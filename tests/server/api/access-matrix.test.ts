@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Application, Draft, DraftFile, Enrollment, Invitation, Pattern, PatternSize, Trial } from '../../../db/models';
+import { Application, Draft, DraftFile, Enrollment, Invitation, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
 import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
@@ -25,6 +25,7 @@ type Ctx = StudioWorld & {
   enrollmentId: string;
   otherApplicationId: string;
   draftFileId: string;
+  photoId: string;
   /** An application of the caller's own (every signed-in persona has one). */
   ownApplicationId: string | null;
 };
@@ -210,6 +211,12 @@ const MATRIX: Record<string, Row> = {
     hidden: true,
     call: (c) => ({ path: `/api/draft-files/${c.draftFileId}/link` }),
   },
+  // A tester's own enrolment only: here the enrolment is someone else's, so every caller is refused
+  // (allowed callers are exercised in photos.test.ts).
+  'GET /api/me/enrollments/:enrollmentId/photos': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/photos` }) },
+  'POST /api/me/enrollments/:enrollmentId/photos': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/photos`, body: {} }) },
+  'DELETE /api/me/photos/:photoId': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/photos/${c.photoId}` }) },
+  'POST /api/photos/:photoId/link': { allow: STAFF, hidden: true, call: (c) => ({ path: `/api/photos/${c.photoId}/link` }) },
   'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
   'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
   'POST /api/calls/:slug/applications': {
@@ -302,6 +309,7 @@ describe('access matrix', () => {
       const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: otherApp.id, userId: otherApp.userId, sizeId: size.id, variantId: null });
       const draft = await Draft.create({ patternId: pattern.id, version: 1, changeNote: 'First', createdById: null });
       const draftFile = await DraftFile.create({ draftId: draft.id, kind: 'print-a4', originalName: 'a4.pdf', objectKey: `drafts/${draft.id}.pdf`, bytes: 10 });
+      const photo = await Photo.create({ enrollmentId: enrollment.id, stage: 'final', view: 'front', consent: 'staff-only', fullKey: `photos/${draft.id}.jpg`, thumbKey: `photos/${draft.id}-t.jpg`, width: 10, height: 10 });
       let ownApplicationId: string | null = null;
       if (user) {
         const ownTrial = await Trial.create({ studioId: world.studio.id, patternId: pattern.id, slug: `own-${token.slice(0, 12).toLowerCase()}`, title: 'Own', state: 'open', coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] } });
@@ -321,6 +329,7 @@ describe('access matrix', () => {
         enrollmentId: enrollment.id,
         otherApplicationId: otherApp.id,
         draftFileId: draftFile.id,
+        photoId: photo.id,
         ownApplicationId,
       });
       const [method] = route.split(' ');

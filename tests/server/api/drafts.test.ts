@@ -3,11 +3,10 @@ import { Application, Draft, DraftFile, Enrollment, Trial } from '../../../db/mo
 import { addMember, bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
 import { waitForMessage } from '../../support/inbox';
 import { buildTestApp, type TestApp } from '../../support/test-app';
+import { tinyPdf } from '../../support/sample-files';
 
-// The smallest well-formed PDF: the "%PDF-" header that identifies the format (ISO 32000-1, 7.5.2).
-const PDF = Buffer.from(
-  '%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
-);
+// A small valid PDF built in code (see tests/support/sample-files.ts).
+const PDF = tinyPdf();
 
 describe('draft files', () => {
   let t: TestApp;

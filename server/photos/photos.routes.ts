@@ -1,0 +1,52 @@
+import { Router, type RequestHandler } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import type { AppDeps } from '../app';
+import { requireUser } from '../auth/guards';
+import { PHOTO_MAX_BYTES } from '../files/content-check';
+import { uuidParam } from '../middleware/uuid-param';
+import { addPhoto, deletePhoto, myPhotos, ownEnrollment, photoLink, serializePhoto } from './photos.service';
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
+const photoFields = z.object({
+  stage: z.enum(['check-in', 'final'], { error: 'Say whether the photo is for the check-in or the final report' }),
+  view: z.enum(['front', 'side', 'back', 'detail'], { error: 'Choose front, side, back or detail' }),
+  consent: z.enum(['staff-only', 'may-share'], { error: 'Choose who may see the photo' }),
+});
+
+/** Mounted at /api: a tester's photos of their own enrolment, and photo links for tester and staff. */
+export function photosRouter(deps: AppDeps): Router {
+  const router = Router();
+  const enrollment = uuidParam('enrollmentId', 'enrollment');
+
+  router.get('/me/enrollments/:enrollmentId/photos', requireUser, enrollment, async (req, res) => {
+    res.json((await myPhotos(String(req.params.enrollmentId), res.locals.user!)).map(serializePhoto));
+  });
+
+  // Ownership is checked before the upload is read, so an outsider learns nothing and sends nothing.
+  const own: RequestHandler = async (req, res, next) => {
+    await ownEnrollment(String(req.params.enrollmentId), res.locals.user!);
+    next();
+  };
+
+  router.post('/me/enrollments/:enrollmentId/photos', requireUser, enrollment, own, upload.single('photo'), async (req, res) => {
+    const fields = photoFields.parse(req.body ?? {});
+    if (!req.file) {
+      res.status(400).json({ error: { code: 'invalid_input', message: 'Attach the photo as the “photo” field.', fields: { photo: 'no file was sent' } } });
+      return;
+    }
+    const photo = await addPhoto(String(req.params.enrollmentId), res.locals.user!, fields, { buffer: req.file.buffer, name: req.file.originalname }, deps.storage);
+    res.status(201).json(serializePhoto(photo));
+  });
+
+  router.delete('/me/photos/:photoId', requireUser, uuidParam('photoId', 'photo'), async (req, res) => {
+    await deletePhoto(String(req.params.photoId), res.locals.user!, deps.storage);
+    res.status(204).end();
+  });
+
+  router.post('/photos/:photoId/link', requireUser, uuidParam('photoId', 'photo'), async (req, res) => {
+    const size = req.query.size === 'thumb' ? 'thumb' : 'full';
+    res.json(await photoLink(String(req.params.photoId), size, res.locals.user!, deps.storage));
+  });
+  return router;
+}

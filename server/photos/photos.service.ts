@@ -1,0 +1,81 @@
+import { randomUUID } from 'node:crypto';
+import { Enrollment, Membership, Photo, Trial, type User } from '../../db/models';
+import { can } from '../domain/policy';
+import { notFound } from '../errors';
+import { checkPhotoFile } from '../files/content-check';
+import { processPhoto } from '../files/photo-pipeline';
+import type { Storage } from '../storage/storage';
+
+export type PhotoInput = { stage: Photo['stage']; view: Photo['view']; consent: Photo['consent'] };
+
+/** The caller's own active enrolment; someone else's is not found. */
+export async function ownEnrollment(enrollmentId: string, user: User) {
+  const enrollment = await Enrollment.findOne({ where: { id: enrollmentId, userId: user.id } });
+  if (!enrollment) throw notFound('enrollment');
+  return enrollment;
+}
+
+/**
+ * Checks the bytes are a photo, re-encodes them without any metadata (GPS included) with the
+ * orientation applied, stores the result and a thumbnail, then writes the row. A store that
+ * fails leaves no row; a row that fails removes what was stored.
+ */
+export async function addPhoto(enrollmentId: string, user: User, input: PhotoInput, file: { buffer: Buffer; name: string }, storage: Storage) {
+  const enrollment = await ownEnrollment(enrollmentId, user);
+  await checkPhotoFile(file.buffer, file.name);
+  const { full, thumb } = await processPhoto(file.buffer, file.name);
+  const id = randomUUID();
+  const keys = { full: `photos/${id}.jpg`, thumb: `photos/${id}-thumb.jpg` };
+  const stored: string[] = [];
+  try {
+    await storage.put('photos', keys.full, full.buffer, full.mime);
+    stored.push(keys.full);
+    await storage.put('photos', keys.thumb, thumb.buffer, thumb.mime);
+    stored.push(keys.thumb);
+    return await Photo.create({
+      id,
+      enrollmentId: enrollment.id,
+      ...input,
+      fullKey: keys.full,
+      thumbKey: keys.thumb,
+      width: full.width,
+      height: full.height,
+    });
+  } catch (error) {
+    await Promise.allSettled(stored.map((key) => storage.remove('photos', key)));
+    throw error;
+  }
+}
+
+/** Deleting a photo removes the stored objects as well as the row. */
+export async function deletePhoto(photoId: string, user: User, storage: Storage) {
+  const photo = await Photo.findByPk(photoId);
+  if (!photo) throw notFound('photo');
+  await ownEnrollment(photo.enrollmentId, user);
+  await Promise.all([storage.remove('photos', photo.fullKey), storage.remove('photos', photo.thumbKey)]);
+  await photo.destroy();
+}
+
+export async function myPhotos(enrollmentId: string, user: User) {
+  await ownEnrollment(enrollmentId, user);
+  return Photo.findAll({ where: { enrollmentId }, order: [['createdAt', 'ASC']] });
+}
+
+/**
+ * A short-lived link to a photo (or its thumbnail): for the tester who took it and the staff of
+ * the trial's studio (owner, coordinator, grader). Anyone else: not found.
+ */
+export async function photoLink(photoId: string, size: 'full' | 'thumb', user: User, storage: Storage) {
+  const photo = await Photo.findByPk(photoId, { include: [{ model: Enrollment, as: 'enrollment', include: [{ model: Trial, as: 'trial' }] }] });
+  const enrollment = (photo as (Photo & { enrollment?: Enrollment & { trial?: Trial } }) | null)?.enrollment;
+  if (!photo || !enrollment?.trial) throw notFound('photo');
+  const own = enrollment.userId === user.id;
+  const membership = own ? null : await Membership.findOne({ where: { studioId: enrollment.trial.studioId, userId: user.id } });
+  if (!own && !can(membership?.role, 'trials.read')) throw notFound('photo');
+  const key = size === 'thumb' ? photo.thumbKey : photo.fullKey;
+  return { url: await storage.signedUrl('photos', key, `${photo.view}-${photo.id.slice(0, 8)}.jpg`), expiresInSeconds: 300 };
+}
+
+export function serializePhoto(photo: Photo) {
+  return { id: photo.id, stage: photo.stage, view: photo.view, consent: photo.consent, width: photo.width, height: photo.height, createdAt: photo.createdAt };
+}
