@@ -14,6 +14,7 @@ import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { callsRouter, myTrialsRouter } from './calls/calls.routes';
 import { draftLinksRouter } from './drafts/drafts.routes';
 import { photosRouter } from './photos/photos.routes';
+import { myReportsRouter } from './reports/reports.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
@@ -40,6 +41,7 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/calls', callsRouter(deps));
   api.use(draftLinksRouter(deps));
   api.use(photosRouter(deps));
+  api.use(myReportsRouter());
   api.use(apiNotFound);
   return api;
 }

@@ -6,6 +6,7 @@ import * as patterns from './0003-patterns';
 import * as trials from './0004-trials';
 import * as drafts from './0005-drafts';
 import * as photos from './0006-photos';
+import * as reports from './0007-reports';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -17,4 +18,5 @@ export const migrations: Migration[] = [
   { name: '0004-trials', ...trials },
   { name: '0005-drafts', ...drafts },
   { name: '0006-photos', ...photos },
+  { name: '0007-reports', ...reports },
 ];

@@ -8,6 +8,7 @@ import { Membership } from './membership';
 import { Milestone } from './milestone';
 import { PasswordReset } from './password-reset';
 import { Photo } from './photo';
+import { Report } from './report';
 import { Pattern } from './pattern';
 import { PatternSize } from './pattern-size';
 import { PatternVariant } from './pattern-variant';
@@ -16,7 +17,7 @@ import { TesterProfile } from './tester-profile';
 import { Trial } from './trial';
 import { User } from './user';
 
-export { Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
+export { Report, Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
 export function initModels(sequelize: Sequelize): void {
@@ -38,6 +39,7 @@ export function initModels(sequelize: Sequelize): void {
   DraftFile.initModel(sequelize);
   DraftDownload.initModel(sequelize);
   Photo.initModel(sequelize);
+  Report.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -77,4 +79,6 @@ export function initModels(sequelize: Sequelize): void {
   DraftDownload.belongsTo(User, { as: 'user', foreignKey: 'userId' });
   Enrollment.hasMany(Photo, { as: 'photos', foreignKey: 'enrollmentId' });
   Photo.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
+  Enrollment.hasMany(Report, { as: 'reports', foreignKey: 'enrollmentId' });
+  Report.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
 }

@@ -7,6 +7,7 @@ import { createTrialSchema, decideSchema, dueOverrideSchema, updateTrialSchema }
 import { notFound } from '../errors';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
+import { trialReportsRouter } from '../reports/reports.routes';
 import { sendDecisionMail } from './trial-mail';
 import { serializeApplication, serializeTrial } from './trial-serializer';
 import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
@@ -74,6 +75,8 @@ export function trialsRouter(deps: AppDeps): Router {
       })),
     );
   });
+
+  router.use('/:trialId', trialReportsRouter());
 
   // More time for one tester: a per-milestone date that replaces the trial's for them alone.
   router.patch(

@@ -217,6 +217,11 @@ const MATRIX: Record<string, Row> = {
   'POST /api/me/enrollments/:enrollmentId/photos': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/photos`, body: {} }) },
   'DELETE /api/me/photos/:photoId': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/photos/${c.photoId}` }) },
   'POST /api/photos/:photoId/link': { allow: STAFF, hidden: true, call: (c) => ({ path: `/api/photos/${c.photoId}/link` }) },
+  'GET /api/me/enrollments/:enrollmentId/reports/:stage': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final` }) },
+  'PUT /api/me/enrollments/:enrollmentId/reports/:stage': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final`, body: { sizeSewn: 'M' } }) },
+  'POST /api/me/enrollments/:enrollmentId/reports/:stage/submit': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final/submit` }) },
+  'GET /api/studios/:studioId/trials/:trialId/reports': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports` }) },
+  'GET /api/studios/:studioId/trials/:trialId/reports.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports.csv` }) },
   'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
   'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
   'POST /api/calls/:slug/applications': {

@@ -1,0 +1,66 @@
+import { Router, type Response } from 'express';
+import Papa from 'papaparse';
+import { z } from 'zod';
+import { requireStudio, requireUser } from '../auth/guards';
+import { reportDraftSchema } from '../domain/schemas/reports';
+import { uuidParam } from '../middleware/uuid-param';
+import { validate } from '../middleware/validate';
+import { loadTrial } from '../trials/trials.service';
+import { getReport, saveReport, submitReport, trialReports, type Stage } from './reports.service';
+
+const stageParam = z.object({ stage: z.enum(['check-in', 'final'], { error: 'The report is the check-in or the final one' }) });
+const listQuery = z.object({
+  stage: z.enum(['check-in', 'final']).optional(),
+  size: z.uuid({ error: 'is not a size' }).optional(),
+  draft: z.coerce.number().int().min(1).optional(),
+});
+
+/** Mounted at /api: a tester's own reports. */
+export function myReportsRouter(): Router {
+  const router = Router();
+  const base = '/me/enrollments/:enrollmentId/reports/:stage';
+  const guard = [requireUser, uuidParam('enrollmentId', 'enrollment'), validate({ params: stageParam })];
+  const stage = (res: Response) => (res.locals.params as { stage: Stage }).stage;
+
+  router.get(base, ...guard, async (req, res) => {
+    res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
+  });
+  // Saved as the tester goes: a reload or a lost connection loses nothing already sent.
+  router.put(base, ...guard, validate({ body: reportDraftSchema }), async (req, res) => {
+    await saveReport(String(req.params.enrollmentId), stage(res), res.locals.user!, res.locals.body);
+    res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
+  });
+  router.post(`${base}/submit`, ...guard, async (req, res) => {
+    await submitReport(String(req.params.enrollmentId), stage(res), res.locals.user!);
+    res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
+  });
+  return router;
+}
+
+/** Mounted at /api/studios/:studioId/trials/:trialId/reports (and .csv): the staff's view. */
+export function trialReportsRouter(): Router {
+  const router = Router({ mergeParams: true });
+  const read = requireStudio('trials.read', 'see reports');
+  const load = async (studioId: string, trialId: string) => loadTrial(studioId, trialId);
+
+  router.get('/reports', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
+    const q = res.locals.query as z.output<typeof listQuery>;
+    const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
+    res.json(await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft }));
+  });
+
+  // One row per alteration (and one per report without any), for a spreadsheet.
+  router.get('/reports.csv', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
+    const q = res.locals.query as z.output<typeof listQuery>;
+    const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
+    const rows = (await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft })).flatMap((r): Record<string, string | number | boolean>[] => {
+      const base = { tester: r.tester, size: r.size, stage: r.stage, draft: r.content.draftVersion ?? '', submitted: r.submittedAt?.toISOString() ?? '', on_time: r.onTime ?? '' };
+      const alterations = r.content.alterations ?? [];
+      return alterations.length
+        ? alterations.map((a) => ({ ...base, area: a.area, kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, amount_mm: a.amountMm, where: a.where, note: a.note }))
+        : [{ ...base, area: '', kind: '', amount_mm: '', where: '', note: '' }];
+    });
+    res.type('text/csv').attachment(`${trial.slug}-reports.csv`).send(Papa.unparse(rows, { newline: '\r\n' }));
+  });
+  return router;
+}
