@@ -50,7 +50,7 @@ export type PublicCall = {
 };
 export type MyTrial = {
   applicationId: string;
-  trial: { id: string; slug: string; title: string; state: string; studioName: string; patternId: string; studioId: string };
+  trial: { id: string; slug: string; title: string; state: string; studioName: string; patternId: string; studioId: string; category: string };
   status: ApplicationRow['status'];
   size: { id: string; label: string } | null;
   enrollment: { id: string; status: string } | null;

@@ -5,6 +5,7 @@ import { DraftFiles } from '@/components/drafts/drafts-panel';
 import { describeInstant } from '@/components/trials/dates';
 import { useTrialDrafts } from '@/hooks/use-drafts';
 import { Button } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
@@ -63,6 +64,12 @@ export default function MyTrialsScreen() {
             <AppText key={d.kind} variant="caption">{`${d.label}: ${describeInstant(d.dueAt, zone)}`}</AppText>
           ))}
           {t.status === 'selected' && t.enrollment?.status === 'active' ? <TrialDrafts trialId={t.trial.id} onError={setFailure} /> : null}
+          {t.enrollment && t.status === 'selected' ? (
+            <View style={styles.reports}>
+              <ButtonLink href={{ pathname: '/report/[enrollmentId]/[stage]', params: { enrollmentId: t.enrollment.id, stage: 'check-in' } }} label="Toile check-in" tone="quiet" />
+              <ButtonLink href={{ pathname: '/report/[enrollmentId]/[stage]', params: { enrollmentId: t.enrollment.id, stage: 'final' } }} label="Final report" tone="quiet" />
+            </View>
+          ) : null}
           {t.status === 'selected' ? (
             <Link href={{ pathname: '/size-advice/[patternId]', params: { patternId: t.trial.patternId } }} style={styles.link}>
               My size advice
@@ -88,4 +95,5 @@ const styles = StyleSheet.create({
   strong: { fontFamily: fonts.semibold },
   link: { color: colors.thread, fontFamily: fonts.semibold, paddingVertical: space.sm },
   drafts: { gap: space.sm },
+  reports: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });
