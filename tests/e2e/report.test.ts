@@ -56,6 +56,16 @@ describe('a tester’s report in Chromium', () => {
     await page.getByRole('button', { name: 'Submit the final report' }).click();
     await page.getByText('Submitted. Thank you! You can still change it until the due time.').waitFor();
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'final-report-phone.png'), fullPage: true });
+
+    // The trial's grader reads it on the trial page.
+    const grader = await createUser('report-grader');
+    await addMember(studio, grader, 'grader');
+    const staff = await h.newContext();
+    expect((await staff.request.post('/api/auth/sign-in', { data: { email: grader.email, password: TEST_PASSWORD } })).status()).toBe(200);
+    const wide = await h.newPage(staff, { width: 1280, height: 800 });
+    await wide.goto(`/trials/${trial.id}`);
+    await wide.getByText(`${tester.name} · size 12 · draft 1`).waitFor();
+    await wide.getByText('• leg-length: -1 1/2 in (both)').waitFor();
     expect(h.errors).toEqual([]);
   });
 });
