@@ -1,14 +1,14 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { useForm } from 'react-hook-form';
 import { applyApiError } from '@/components/forms/api-errors';
+import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
 import { landingFor } from '@/components/layout/require-session';
 import { Button } from '@/components/ui/button';
 import { ButtonLink } from '@/components/ui/button-link';
 import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
 import { confirmPasswordReset, requestPasswordReset } from '@/hooks/use-session';
 import { passwordSchema, resetRequestSchema, type ResetRequestInput } from '@/server/domain/schemas/auth';
 import { z } from 'zod';
@@ -34,23 +34,7 @@ function AskForLink() {
     <Screen title="Reset your password" intro="We e-mail you a link to choose a new password. It works once, for an hour.">
       {sent ? <Notice tone="success">{sent}</Notice> : null}
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <Controller
-        control={control}
-        name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            label="E-mail"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            onSubmitEditing={submit}
-            error={fieldState.error?.message}
-            autoComplete="email"
-            inputMode="email"
-            autoCapitalize="none"
-          />
-        )}
-      />
+      <FormTextField control={control} name="email" label="E-mail" onSubmitEditing={submit} {...EMAIL_INPUT} />
       <Button label="Send the link" busyLabel="Sending…" busy={formState.isSubmitting} onPress={submit} />
       <ButtonLink href="/sign-in" label="Back to sign-in" tone="quiet" />
     </Screen>
@@ -75,23 +59,7 @@ function ChooseNewPassword({ token }: { token: string }) {
   return (
     <Screen title="Choose a new password" intro="Signing in with the new password ends every other session of your account.">
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <Controller
-        control={control}
-        name="password"
-        render={({ field, fieldState }) => (
-          <TextField
-            label="New password"
-            hint="At least 10 characters."
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            onSubmitEditing={submit}
-            error={fieldState.error?.message}
-            secureTextEntry
-            autoComplete="new-password"
-          />
-        )}
-      />
+      <FormTextField control={control} name="password" label="New password" hint="At least 10 characters." onSubmitEditing={submit} secureTextEntry autoComplete="new-password" />
       <Button label="Save and sign in" busyLabel="Saving…" busy={formState.isSubmitting} onPress={submit} />
       <ButtonLink href="/reset-password" label="Ask for a new link" tone="quiet" />
     </Screen>

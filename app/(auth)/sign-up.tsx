@@ -1,15 +1,15 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { useForm } from 'react-hook-form';
 import { applyApiError } from '@/components/forms/api-errors';
+import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
 import { safeNext } from '@/components/forms/safe-next';
 import { landingFor } from '@/components/layout/require-session';
 import { Button } from '@/components/ui/button';
 import { ButtonLink } from '@/components/ui/button-link';
 import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
-import { TextField } from '@/components/ui/text-field';
 import { signUp } from '@/hooks/use-session';
 import { signUpSchema, type SignUpInput } from '@/server/domain/schemas/auth';
 
@@ -35,46 +35,9 @@ export default function SignUpScreen() {
   return (
     <Screen title="Create an account" intro="One account works in every studio you design, grade or test for.">
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <Controller
-        control={control}
-        name="name"
-        render={({ field, fieldState }) => (
-          <TextField label="Your name" value={field.value} onChangeText={field.onChange} onBlur={field.onBlur} error={fieldState.error?.message} autoComplete="name" />
-        )}
-      />
-      <Controller
-        control={control}
-        name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            label="E-mail"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            autoComplete="email"
-            inputMode="email"
-            autoCapitalize="none"
-          />
-        )}
-      />
-      <Controller
-        control={control}
-        name="password"
-        render={({ field, fieldState }) => (
-          <TextField
-            label="Password"
-            hint="At least 10 characters. A few unrelated words make a strong one."
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            onSubmitEditing={submit}
-            error={fieldState.error?.message}
-            secureTextEntry
-            autoComplete="new-password"
-          />
-        )}
-      />
+      <FormTextField control={control} name="name" label="Your name" autoComplete="name" />
+      <FormTextField control={control} name="email" label="E-mail" {...EMAIL_INPUT} />
+      <FormTextField control={control} name="password" label="Password" hint="At least 10 characters. A few unrelated words make a strong one." onSubmitEditing={submit} secureTextEntry autoComplete="new-password" />
       <Button label="Create account" busyLabel="Creating your account…" busy={formState.isSubmitting} onPress={submit} />
       <ButtonLink href={{ pathname: '/sign-in', params: next ? { next } : {} }} label="I already have an account" tone="quiet" />
     </Screen>

@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { applyApiError } from '@/components/forms/api-errors';
+import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ChoiceGroup } from '@/components/ui/choice-group';
@@ -11,7 +12,6 @@ import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
 import { Empty, LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
-import { TextField } from '@/components/ui/text-field';
 import { colors, space } from '@/constants/theme';
 import { useSession } from '@/hooks/use-session';
 import { changeRole, invite, removeMember, useInvitations, useMembers, withdrawInvitation, type Member } from '@/hooks/use-studio';
@@ -42,21 +42,7 @@ function InviteForm({ studioId, isOwner }: { studioId: string; isOwner: boolean 
     <Card title="Invite someone">
       {sent ? <Notice tone="success">{sent}</Notice> : null}
       {formError ? <Notice tone="error">{formError}</Notice> : null}
-      <Controller
-        control={control}
-        name="email"
-        render={({ field, fieldState }) => (
-          <TextField
-            label="E-mail"
-            value={field.value}
-            onChangeText={field.onChange}
-            onBlur={field.onBlur}
-            error={fieldState.error?.message}
-            inputMode="email"
-            autoCapitalize="none"
-          />
-        )}
-      />
+      <FormTextField control={control} name="email" label="E-mail" {...EMAIL_INPUT} />
       <Controller
         control={control}
         name="role"

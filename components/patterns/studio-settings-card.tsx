@@ -15,7 +15,8 @@ export function StudioSettingsCard({ studioId, unit }: { studioId: string; unit:
   const { data } = useSWR<StudioWithSettings>(key);
   const [margin, setMargin] = useState<number | null>(null);
   const [message, setMessage] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
-  if (!data) return null;
+  // Shown once the studio's settings are in; the rest of the page does not wait for them.
+  if (!data?.settings) return null;
   const value = margin ?? data.settings.fullerBellyMarginMm;
   const save = async () => {
     setMessage(null);

@@ -25,6 +25,7 @@ function serveSessionAs(role: Role | null) {
       const session = { user: { id: 'u1', email: 'me@example.test', name: 'Me' }, studios: [studio], currentStudioId: 's1' };
       return new Response(JSON.stringify(session), { status: 200 });
     }
+    if (url === '/api/studios/s1') return new Response(JSON.stringify({ id: 's1', name: 'Test Studio', settings: { fullerBellyMarginMm: 25.4 } }), { status: 200 });
     return new Response('[]', { status: 200 });
   }) as jest.Mock;
 }
