@@ -7,6 +7,8 @@ import { createTrialSchema, decideSchema, dueOverrideSchema, updateTrialSchema }
 import { notFound } from '../errors';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
+import { z } from 'zod';
+import { findingsFor } from '../findings/findings.service';
 import { trialReportsRouter } from '../reports/reports.routes';
 import { sendDecisionMail } from './trial-mail';
 import { serializeApplication, serializeTrial } from './trial-serializer';
@@ -77,6 +79,17 @@ export function trialsRouter(deps: AppDeps): Router {
   });
 
   router.use('/:trialId', trialReportsRouter());
+
+  // Findings computed from the submitted final reports (graders included: they triage them).
+  const findingsQuery = z.object({
+    draft: z.string().regex(/^\d+$/, 'is a draft number').optional(),
+    compare: z.string().regex(/^\d+,\d+$/, 'is two draft numbers, e.g. 1,2').optional(),
+  });
+  router.get('/:trialId/findings', read, trial, validate({ query: findingsQuery }), async (req, res) => {
+    const q = res.locals.query as z.output<typeof findingsQuery>;
+    const found = await loadTrial(studioId(res), trialId(req));
+    res.json(await findingsFor(found, { draft: q.draft, compare: q.compare ? (q.compare.split(',') as [string, string]) : undefined }));
+  });
 
   // More time for one tester: a per-milestone date that replaces the trial's for them alone.
   router.patch(

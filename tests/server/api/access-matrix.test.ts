@@ -222,6 +222,7 @@ const MATRIX: Record<string, Row> = {
   'POST /api/me/enrollments/:enrollmentId/reports/:stage/submit': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final/submit` }) },
   'GET /api/studios/:studioId/trials/:trialId/reports': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports` }) },
   'GET /api/studios/:studioId/trials/:trialId/reports.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports.csv` }) },
+  'GET /api/studios/:studioId/trials/:trialId/findings': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings` }) },
   'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
   'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
   'POST /api/calls/:slug/applications': {
