@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { Trial } from '../../db/models';
+import { Enrollment, Trial } from '../../db/models';
+import { removeEnrollmentPhotos } from '../photos/photos.service';
 import type { AppDeps } from '../app';
 import { requireUser } from '../auth/guards';
 import { applySchema } from '../domain/schemas/trials';
@@ -33,6 +34,8 @@ export function myTrialsRouter(deps: AppDeps): Router {
   });
   router.post('/applications/:applicationId/withdraw', requireUser, uuidParam('applicationId', 'application'), async (req, res) => {
     const { application, offered } = await withdraw(res.locals.user!, String(req.params.applicationId));
+    const enrollment = await Enrollment.findOne({ where: { applicationId: application.id } });
+    if (enrollment) await removeEnrollmentPhotos(enrollment.id, deps.storage);
     // The freed seat went to the best waitlisted applicant of that size: tell them.
     if (offered) {
       const studioId = (await Trial.findByPk(application.trialId))!.studioId;

@@ -56,6 +56,16 @@ export async function deletePhoto(photoId: string, user: User, storage: Storage)
   await photo.destroy();
 }
 
+/** A tester who withdraws takes their photos with them: rows and stored objects. */
+export async function removeEnrollmentPhotos(enrollmentId: string, storage: Storage) {
+  const photos = await Photo.findAll({ where: { enrollmentId } });
+  for (const photo of photos) {
+    await Promise.all([storage.remove('photos', photo.fullKey), storage.remove('photos', photo.thumbKey)]);
+    await photo.destroy();
+  }
+  return photos.length;
+}
+
 export async function myPhotos(enrollmentId: string, user: User) {
   await ownEnrollment(enrollmentId, user);
   return Photo.findAll({ where: { enrollmentId }, order: [['createdAt', 'ASC']] });

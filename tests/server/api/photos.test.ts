@@ -91,4 +91,15 @@ describe('photos of a tester’s toile and garment', () => {
     await expect(t.storage.client.send(new GetObjectCommand({ Bucket: t.config.s3.buckets.photos, Key: photo.fullKey }))).rejects.toThrow();
     expect(await Photo.findByPk(photo.id)).toBeNull();
   });
+
+  it('a tester who withdraws has their photos deleted, rows and stored objects', async () => {
+    const made = await post().attach('photo', await jpegWithGpsAndOrientation(), 'leaving.jpg');
+    expect(made.status).toBe(201);
+    const photo = (await Photo.findByPk(made.body.id))!;
+    const enrollment = (await Enrollment.findByPk(enrollmentId))!;
+    const out = await request(t.app).post(`/api/me/applications/${enrollment.applicationId}/withdraw`).set(as(w.users.tester));
+    expect(out.status).toBe(200);
+    expect(await Photo.count({ where: { enrollmentId } })).toBe(0);
+    await expect(t.storage.client.send(new GetObjectCommand({ Bucket: t.config.s3.buckets.photos, Key: photo.thumbKey }))).rejects.toThrow();
+  });
 });
