@@ -2,6 +2,7 @@ import { useLocalSearchParams } from 'expo-router';
 import { ApplicantsPanel } from '@/components/trials/applicants-panel';
 import { CallEditor } from '@/components/trials/call-editor';
 import { TargetsEditor } from '@/components/trials/targets-editor';
+import { FindingsPanel } from '@/components/trials/findings-panel';
 import { ReportsPanel } from '@/components/trials/reports-panel';
 import { TestersPanel } from '@/components/trials/testers-panel';
 import { ButtonLink } from '@/components/ui/button-link';
@@ -34,6 +35,7 @@ export default function TrialScreen() {
       <TargetsEditor key={`targets-${trial.id}`} studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} canEdit={canEdit} />
       {can(currentStudio.role, 'applicants.manage') ? <ApplicantsPanel studioId={currentStudio.id} trialId={trial.id} unit={session.user.lengthUnit} /> : null}
       <ReportsPanel studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} />
+      <FindingsPanel studioId={currentStudio.id} trialId={trial.id} />
       {can(currentStudio.role, 'applicants.manage') ? <TestersPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
     </Screen>
   );
