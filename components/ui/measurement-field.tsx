@@ -1,8 +1,9 @@
 import { useState } from 'react';
-import { StyleSheet, TextInput, View } from 'react-native';
-import { colors, fonts, radius, space } from '@/constants/theme';
+import { TextInput, View } from 'react-native';
+import { colors } from '@/constants/theme';
 import { formatLength, parseLength, type LengthUnit, type ParseResult } from '@/server/domain/units';
 import { AppText } from './text';
+import { fieldStyles } from './text-field';
 
 type Props = {
   label: string;
@@ -135,7 +136,7 @@ export function MeasurementField({
         spellCheck={false}
         inputMode="text"
         editable={!readOnly}
-        style={[styles.input, focused && styles.inputFocused, message ? styles.inputInvalid : null, readOnly && styles.inputReadOnly]}
+        style={[styles.input, focused && styles.focused, message ? styles.invalid : null, readOnly && styles.readOnly]}
       />
       {message ? (
         <AppText role="alert" aria-live="polite" variant="caption" style={styles.error}>
@@ -146,22 +147,4 @@ export function MeasurementField({
   );
 }
 
-const styles = StyleSheet.create({
-  field: { gap: space.xs },
-  input: {
-    minHeight: 44,
-    borderWidth: 1,
-    borderColor: colors.line,
-    borderRadius: radius.sm,
-    backgroundColor: colors.surface,
-    paddingHorizontal: space.md,
-    paddingVertical: space.sm,
-    fontFamily: fonts.regular,
-    fontSize: 16,
-    color: colors.ink,
-  },
-  inputReadOnly: { backgroundColor: colors.surfaceSunken, borderColor: colors.surfaceSunken },
-  inputFocused: { borderColor: colors.focus, borderWidth: 2 },
-  inputInvalid: { borderColor: colors.warning, borderWidth: 2 },
-  error: { color: colors.warning, fontFamily: fonts.medium },
-});
+const styles = fieldStyles;

@@ -36,7 +36,8 @@ export const TextField = forwardRef<TextInput, Props>(function TextField({ label
   );
 });
 
-const styles = StyleSheet.create({
+/** The look of every text input, shared with the measurement field. */
+export const fieldStyles = StyleSheet.create({
   field: { gap: space.xs },
   input: {
     minHeight: 44,
@@ -53,5 +54,7 @@ const styles = StyleSheet.create({
   multiline: { minHeight: 88, textAlignVertical: 'top' },
   focused: { borderColor: colors.focus, borderWidth: 2 },
   invalid: { borderColor: colors.warning, borderWidth: 2 },
+  readOnly: { backgroundColor: colors.surfaceSunken, borderColor: colors.surfaceSunken },
   error: { color: colors.warning, fontFamily: fonts.medium },
 });
+const styles = fieldStyles;
