@@ -3,7 +3,8 @@ import useSWR from 'swr';
 import type { ReportDraft } from '@/server/domain/schemas/reports';
 import { api, ApiError } from './api';
 
-export type ReportState = { stage: 'check-in' | 'final'; content: ReportDraft; submittedAt: string | null; dueAt: string | null; editable: boolean };
+export type ReportChoices = { sizes: string[]; chosenSize: string | null; variants: string[]; drafts: { version: number; changeNote: string; createdAt: string }[] };
+export type ReportState = { stage: 'check-in' | 'final'; content: ReportDraft; submittedAt: string | null; dueAt: string | null; editable: boolean; choices?: ReportChoices };
 export type SaveStatus = { state: 'idle' | 'saving' | 'saved' | 'error'; message?: string; fields?: Record<string, string> };
 
 export const reportKey = (enrollmentId: string, stage: string) => `/api/me/enrollments/${enrollmentId}/reports/${stage}`;

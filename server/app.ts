@@ -16,6 +16,7 @@ import { draftLinksRouter } from './drafts/drafts.routes';
 import { photosRouter } from './photos/photos.routes';
 import { myReportsRouter } from './reports/reports.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
+import { mailLinksRouter } from './outbox/outbox.routes';
 import { profileRouter } from './profile/profile.routes';
 import type { Storage } from './storage/storage';
 import { studiosRouter } from './studios/studios.routes';
@@ -36,6 +37,7 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/auth', authRouter(deps));
   api.use('/studios', studiosRouter(deps));
   api.use('/invitations', invitationLinksRouter());
+  api.use('/mail', mailLinksRouter(deps));
   api.use('/me', profileRouter());
   api.use('/me', myTrialsRouter(deps));
   api.use('/calls', callsRouter(deps));
@@ -75,7 +77,8 @@ export function createApp(deps: AppDeps): express.Express {
         directives: {
           // react-native-web writes its styles into <style> elements at run time.
           'style-src': ["'self'", "'unsafe-inline'"],
-          'img-src': ["'self'", 'data:', 'blob:'],
+          // Photo thumbnails load straight from the object store through signed links.
+          'img-src': ["'self'", 'data:', 'blob:', deps.config.s3.endpoint ? new URL(deps.config.s3.endpoint).origin : 'https://*.amazonaws.com'],
           'font-src': ["'self'", 'data:'],
           'connect-src': ["'self'"],
           // Signed download links point at the object store's own origin.

@@ -3,6 +3,7 @@ import { createSequelize } from '../db/sequelize';
 import { migrateUp } from '../db/migrator';
 import { createApp } from './app';
 import { ConfigError, loadConfig } from './config';
+import { startJobQueue } from './jobs/queue';
 import { createMailer } from './mail/mailer';
 import { createStorage } from './storage/storage';
 
@@ -15,6 +16,8 @@ async function main() {
   const storage = createStorage(config.s3);
   const mailer = createMailer(config.smtp);
   const app = createApp({ config, sequelize, storage, mailer });
+  // Reminders, digests and mail retries run from the persistent queue in PostgreSQL.
+  const jobs = await startJobQueue({ config, mailer }, { databaseUrl: config.databaseUrl });
 
   const server: Server = app.listen(config.port, config.host, () => {
     console.log(`Basted listening on http://${config.host}:${config.port}`);
@@ -28,9 +31,14 @@ async function main() {
     // Let requests in flight finish, then release the pool; give up after 10 s.
     setTimeout(() => process.exit(1), 10_000).unref();
     server.close(() => {
-      storage.close();
-      mailer.close();
-      sequelize.close().finally(() => process.exit(0));
+      jobs
+        .stop()
+        .catch((error: unknown) => console.error('[jobs] stop:', error))
+        .finally(() => {
+          storage.close();
+          mailer.close();
+          sequelize.close().finally(() => process.exit(0));
+        });
     });
     server.closeIdleConnections();
   };

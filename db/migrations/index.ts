@@ -7,6 +7,8 @@ import * as trials from './0004-trials';
 import * as drafts from './0005-drafts';
 import * as photos from './0006-photos';
 import * as reports from './0007-reports';
+import * as findings from './0008-findings';
+import * as mailOutbox from './0009-mail-outbox';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -19,4 +21,6 @@ export const migrations: Migration[] = [
   { name: '0005-drafts', ...drafts },
   { name: '0006-photos', ...photos },
   { name: '0007-reports', ...reports },
+  { name: '0008-findings', ...findings },
+  { name: '0009-mail-outbox', ...mailOutbox },
 ];

@@ -3,9 +3,11 @@ import { Application } from './application';
 import { Draft, DraftDownload, DraftFile } from './draft';
 import { Enrollment } from './enrollment';
 import { FabricNeed } from './fabric-need';
+import { FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping } from './finding';
 import { Invitation } from './invitation';
 import { Membership } from './membership';
 import { Milestone } from './milestone';
+import { OutboxMessage } from './outbox-message';
 import { PasswordReset } from './password-reset';
 import { Photo } from './photo';
 import { Report } from './report';
@@ -17,6 +19,8 @@ import { TesterProfile } from './tester-profile';
 import { Trial } from './trial';
 import { User } from './user';
 
+export { FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping };
+export { OutboxMessage };
 export { Report, Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
@@ -40,6 +44,11 @@ export function initModels(sequelize: Sequelize): void {
   DraftDownload.initModel(sequelize);
   Photo.initModel(sequelize);
   Report.initModel(sequelize);
+  FindingSnapshot.initModel(sequelize);
+  FindingTriage.initModel(sequelize);
+  FindingNote.initModel(sequelize);
+  OutboxMessage.initModel(sequelize);
+  OtherAlterationMapping.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -81,4 +90,12 @@ export function initModels(sequelize: Sequelize): void {
   Photo.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
   Enrollment.hasMany(Report, { as: 'reports', foreignKey: 'enrollmentId' });
   Report.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
+  Trial.hasMany(FindingSnapshot, { as: 'findingSnapshots', foreignKey: 'trialId' });
+  FindingTriage.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  FindingTriage.belongsTo(User, { as: 'updatedBy', foreignKey: 'updatedById' });
+  FindingNote.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  FindingNote.belongsTo(User, { as: 'author', foreignKey: 'authorId' });
+  OtherAlterationMapping.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  OutboxMessage.belongsTo(User, { as: 'recipient', foreignKey: 'recipientId' });
+  OtherAlterationMapping.belongsTo(User, { as: 'mappedBy', foreignKey: 'mappedById' });
 }

@@ -5,6 +5,7 @@ import { proposeSelection } from '../../server/domain/coverage';
 import type { MeasurementKey } from '../../server/domain/measurements';
 import { adviseSize } from '../../server/domain/size-advice';
 import { Application, Enrollment, FabricNeed, Membership, Milestone, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User } from '../models';
+import { seedDemoReports } from './demo-reports';
 
 /**
  * The demo studio: an invented small pattern brand with its staff and a few volunteer testers.
@@ -83,10 +84,12 @@ async function seedDemoPattern(studio: Studio, transaction: Transaction) {
 
 export const DEMO_TRIAL_SLUG = 'wide-leg-trousers-demo';
 const APPLICANTS = 40;
+/** Testers wanted per size: two, and a third in the drafted size 10 (the sample size). */
+const targetOf = (label: string) => (label === '10' ? 3 : 2);
 
 /**
  * The demo trial of the demo trousers: forty invented applicants spread over the size range and
- * heights (a deterministic spread, no randomness), two testers wanted per size, and the automatic
+ * heights (a deterministic spread, no randomness), two testers wanted per size (three in size 10), and the automatic
  * selection's picks selected. Dates are set relative to the moment the demo is first loaded.
  */
 async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: Transaction) {
@@ -110,7 +113,7 @@ async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: 
       requirements: 'A mid-weight woven with drape (linen, viscose twill, tencel). Photos front, side and back of the toile and the finished pair.',
       state: 'running',
       coverage: {
-        sizes: sizes.map((s) => ({ sizeId: s.id, target: 2 })),
+        sizes: sizes.map((s) => ({ sizeId: s.id, target: targetOf(s.label) })),
         heightBands: [
           { id: 'petite', label: 'Petite', minMm: null, maxMm: 1600 },
           { id: 'regular', label: 'Regular', minMm: 1600, maxMm: 1720 },
@@ -172,7 +175,7 @@ async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: 
     applicants.push({ app, heightMm });
   }
   const proposal = proposeSelection(
-    { sizes: sizes.map((s) => ({ id: s.id, label: s.label, target: 2 })), heightBands: trial.coverage.heightBands, variants: [] },
+    { sizes: sizes.map((s) => ({ id: s.id, label: s.label, target: targetOf(s.label) })), heightBands: trial.coverage.heightBands, variants: [] },
     applicants.map(({ app, heightMm }) => ({
       id: app.id,
       appliedAt: app.appliedAt.toISOString(),
@@ -218,4 +221,5 @@ export async function seedDemoStudio(sequelize: Sequelize, bcryptCost = 10): Pro
     await seedDemoPattern(studio, transaction);
     await seedDemoTrial(studio, passwordHash, transaction);
   });
+  await seedDemoReports(sequelize);
 }

@@ -6,6 +6,7 @@ import type { ResetConfirmInput, SignInInput, SignUpInput } from '../domain/sche
 import { AppError, badRequest, conflict, unavailable } from '../errors';
 import type { Mailer } from '../mail/mailer';
 import { passwordResetMail } from '../mail/templates';
+import { sendOrThrow } from '../outbox/outbox.service';
 import { hashSecretToken, newSecretToken } from './secret-token';
 
 export const RESET_MINUTES = 60;
@@ -51,7 +52,12 @@ export async function requestPasswordReset(email: string, deps: { config: Config
   });
   const link = `${deps.config.publicUrl}/reset-password?token=${encodeURIComponent(token)}`;
   try {
-    await deps.mailer.send({ to: user.email, ...passwordResetMail({ name: user.name, link, minutes: RESET_MINUTES }) });
+    await sendOrThrow(deps, {
+      key: `password-reset:${reset.id}`,
+      to: { id: user.id, email: user.email },
+      template: 'password-reset',
+      content: passwordResetMail({ name: user.name, link, minutes: RESET_MINUTES }),
+    });
   } catch (error) {
     await reset.destroy();
     console.error('[mail] password reset not sent:', error);

@@ -6,6 +6,7 @@ import { requireUser } from '../auth/guards';
 import { applySchema } from '../domain/schemas/trials';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
+import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { sendDecisionMail } from '../trials/trial-mail';
 import { loadTrial, withdraw } from '../trials/trials.service';
 import { adviceForCall, apply, callBySlug, myTrials } from './calls.service';
@@ -36,6 +37,7 @@ export function myTrialsRouter(deps: AppDeps): Router {
     const { application, offered } = await withdraw(res.locals.user!, String(req.params.applicationId));
     const enrollment = await Enrollment.findOne({ where: { applicationId: application.id } });
     if (enrollment) await removeEnrollmentPhotos(enrollment.id, deps.storage);
+    if (enrollment) await cancelObsoleteReminders({ enrollmentId: enrollment.id });
     // The freed seat went to the best waitlisted applicant of that size: tell them.
     if (offered) {
       const studioId = (await Trial.findByPk(application.trialId))!.studioId;

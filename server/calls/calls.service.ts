@@ -8,6 +8,7 @@ import { conflict, notFound, badRequest } from '../errors';
 import type { Config } from '../config';
 import type { Mailer } from '../mail/mailer';
 import { applicationReceivedMail } from '../mail/templates';
+import { optOutFor, send as sendMail } from '../outbox/outbox.service';
 import { adviceFor } from '../patterns/size-advice.service';
 import { formatDue } from '../trials/trial-mail';
 import { serializeUser } from '../serializers';
@@ -102,14 +103,20 @@ export async function apply(slug: string, user: User, input: z.output<typeof app
   }
   const studio = (await Studio.findByPk(trial.studioId))!;
   try {
-    await deps.mailer.send({
-      to: user.email,
-      ...applicationReceivedMail({
+    await sendMail(deps, {
+      key: `application-received:${application.id}`,
+      to: { id: user.id, email: user.email },
+      template: 'application-received',
+      category: 'trial-news',
+      studioId: studio.id,
+      trialId: trial.id,
+      content: applicationReceivedMail({
         name: user.name,
         trialTitle: trial.title,
         studioName: studio.name,
         link: `${deps.config.publicUrl}/my-trials`,
         closesOn: close ? formatDue(close, user.timeZone) : null,
+        optOut: optOutFor(deps.config, user.id, 'trial-news'),
       }),
     });
   } catch (error) {

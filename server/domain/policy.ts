@@ -24,6 +24,10 @@ export const POLICY = {
   'patterns.adviseSelf': ['owner', 'coordinator', 'grader', 'tester'],
   'trials.read': ['owner', 'coordinator', 'grader'],
   'trials.write': ['owner', 'coordinator'],
+  // The grader and the designer decide what a finding means and leave notes on it.
+  'findings.triage': ['owner', 'coordinator', 'grader'],
+  // Reading a tester's "other" alteration as a kind of the vocabulary changes the findings.
+  'alterations.map': ['owner', 'coordinator'],
   // Applications carry testers' measurements: only the staff who choose testers see them.
   'applicants.manage': ['owner', 'coordinator'],
 } as const satisfies Record<string, readonly Role[]>;

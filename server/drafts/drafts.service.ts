@@ -8,6 +8,7 @@ import { badRequest, notFound } from '../errors';
 import { checkDraftFile } from '../files/content-check';
 import type { Mailer } from '../mail/mailer';
 import { newDraftMail } from '../mail/templates';
+import { optOutFor, send as sendMail } from '../outbox/outbox.service';
 import type { Storage } from '../storage/storage';
 
 export type UploadedFile = { kind: DraftFileKind; originalName: string; buffer: Buffer };
@@ -60,14 +61,29 @@ async function tellTesters(pattern: Pattern, draft: Draft, deps: { config: Confi
     const enrolled = await Enrollment.findAll({ where: { trialId: trial.id, status: 'active' }, include: [{ model: User, as: 'user' }] });
     for (const e of enrolled) {
       const user = (e as Enrollment & { user?: User }).user;
-      if (!user || !user.mailTrialNews) continue;
+      // A tester who turned trial news off gets a skipped row in the outbox, not a message.
+      if (!user) continue;
       try {
-        await deps.mailer.send({
-          to: user.email,
-          ...newDraftMail({ name: user.name, trialTitle: trial.title, studioName: studio?.name ?? '', link: `${deps.config.publicUrl}/my-trials`, version: draft.version, changeNote: draft.changeNote }),
+        await sendMail(deps, {
+          key: `new-draft:${draft.id}:${trial.id}:${user.id}`,
+          to: { id: user.id, email: user.email },
+          template: 'new-draft',
+          category: 'trial-news',
+          studioId: trial.studioId,
+          trialId: trial.id,
+          enrollmentId: e.id,
+          content: newDraftMail({
+            name: user.name,
+            trialTitle: trial.title,
+            studioName: studio?.name ?? '',
+            link: `${deps.config.publicUrl}/my-trials`,
+            version: draft.version,
+            changeNote: draft.changeNote,
+            optOut: optOutFor(deps.config, user.id, 'trial-news'),
+          }),
         });
       } catch (error) {
-        console.error(`[mail] new-draft mail to ${user.email} not sent:`, error);
+        console.error(`[mail] new-draft mail to ${user.email} not recorded:`, error);
       }
     }
   }

@@ -7,6 +7,7 @@ import type { InviteInput } from '../domain/schemas/studios';
 import { conflict, forbidden, notFound, unavailable } from '../errors';
 import type { Mailer } from '../mail/mailer';
 import { invitationMail } from '../mail/templates';
+import { sendOrThrow } from '../outbox/outbox.service';
 import { invitationState } from '../serializers';
 
 export const INVITATION_DAYS = 14;
@@ -57,9 +58,13 @@ export async function createInvitation(
     );
     const link = `${deps.config.publicUrl}/invitations/${encodeURIComponent(token)}`;
     try {
-      await deps.mailer.send({
-        to: email,
-        ...invitationMail({
+      // Recorded outside this transaction, so a failed attempt stays on record after the rollback.
+      await sendOrThrow(deps, {
+        key: `invitation:${invitation.id}`,
+        to: { id: null, email },
+        template: 'invitation',
+        studioId,
+        content: invitationMail({
           studioName: studio.name,
           roleLabel: ROLE_LABELS[input.role],
           inviterName: inviter.name,

@@ -9,7 +9,7 @@ export type SmtpSettings = {
   from: string;
 };
 
-export type OutgoingMail = { to: string; subject: string; text: string; html?: string };
+export type OutgoingMail = { to: string; subject: string; text: string; html?: string; headers?: Record<string, string> };
 
 export type Mailer = {
   send(mail: OutgoingMail): Promise<{ messageId: string }>;

@@ -2,16 +2,25 @@ import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import type { AppDeps } from '../app';
-import { requireUser } from '../auth/guards';
+import { requireStudio, requireUser } from '../auth/guards';
 import { PHOTO_MAX_BYTES } from '../files/content-check';
 import { uuidParam } from '../middleware/uuid-param';
-import { addPhoto, deletePhoto, myPhotos, ownEnrollment, photoLink, serializePhoto } from './photos.service';
+import { validate } from '../middleware/validate';
+import { loadTrial } from '../trials/trials.service';
+import { trialPhotoWall } from './photo-wall.service';
+import { addPhoto, deletePhoto, myPhotos, ownEnrollment, ownPhoto, photoLink, serializePhoto, setPhotoConsent } from './photos.service';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
 const photoFields = z.object({
   stage: z.enum(['check-in', 'final'], { error: 'Say whether the photo is for the check-in or the final report' }),
   view: z.enum(['front', 'side', 'back', 'detail'], { error: 'Choose front, side, back or detail' }),
   consent: z.enum(['staff-only', 'may-share'], { error: 'Choose who may see the photo' }),
+});
+const consentBody = z.object({ consent: photoFields.shape.consent });
+const wallQuery = z.object({
+  stage: photoFields.shape.stage.optional(),
+  view: photoFields.shape.view.optional(),
+  size: z.uuid({ error: 'is not a size' }).optional(),
 });
 
 /** Mounted at /api: a tester's photos of their own enrolment, and photo links for tester and staff. */
@@ -43,6 +52,35 @@ export function photosRouter(deps: AppDeps): Router {
     await deletePhoto(String(req.params.photoId), res.locals.user!, deps.storage);
     res.status(204).end();
   });
+
+  // Ownership first, so someone else's photo is not found whatever the body says.
+  router.patch(
+    '/me/photos/:photoId',
+    requireUser,
+    uuidParam('photoId', 'photo'),
+    async (req, res, next) => {
+      await ownPhoto(String(req.params.photoId), res.locals.user!);
+      next();
+    },
+    validate({ body: consentBody }),
+    async (req, res) => {
+      const { consent } = res.locals.body as z.output<typeof consentBody>;
+      res.json(serializePhoto(await setPhotoConsent(String(req.params.photoId), res.locals.user!, consent)));
+    },
+  );
+
+  // The trial's staff see its photos side by side; thumbnail links are signed after this check.
+  router.get(
+    '/studios/:studioId/trials/:trialId/photos',
+    requireStudio('trials.read', 'see the photos of trials'),
+    uuidParam('trialId', 'trial'),
+    validate({ query: wallQuery }),
+    async (req, res) => {
+      const q = res.locals.query as z.output<typeof wallQuery>;
+      const trial = await loadTrial(res.locals.membership!.studioId, String(req.params.trialId));
+      res.json(await trialPhotoWall(trial, { stage: q.stage, view: q.view, sizeId: q.size }, deps.storage));
+    },
+  );
 
   router.post('/photos/:photoId/link', requireUser, uuidParam('photoId', 'photo'), async (req, res) => {
     const size = req.query.size === 'thumb' ? 'thumb' : 'full';

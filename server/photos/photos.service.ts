@@ -56,6 +56,19 @@ export async function deletePhoto(photoId: string, user: User, storage: Storage)
   await photo.destroy();
 }
 
+/** The caller's own photo (through their enrolment); anyone else's is not found. */
+export async function ownPhoto(photoId: string, user: User) {
+  const photo = await Photo.findOne({ where: { id: photoId }, include: [{ model: Enrollment, as: 'enrollment', where: { userId: user.id }, required: true }] });
+  if (!photo) throw notFound('photo');
+  return photo;
+}
+
+/** The tester may widen or narrow who sees a photo at any time: it is their permission, not report content. */
+export async function setPhotoConsent(photoId: string, user: User, consent: Photo['consent']) {
+  const photo = await ownPhoto(photoId, user);
+  return photo.update({ consent });
+}
+
 /** A tester who withdraws takes their photos with them: rows and stored objects. */
 export async function removeEnrollmentPhotos(enrollmentId: string, storage: Storage) {
   const photos = await Photo.findAll({ where: { enrollmentId } });

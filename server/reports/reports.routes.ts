@@ -1,7 +1,9 @@
 import { Router, type Response } from 'express';
 import Papa from 'papaparse';
 import { z } from 'zod';
+import { OtherAlterationMapping } from '../../db/models';
 import { requireStudio, requireUser } from '../auth/guards';
+import { otherTextKey } from '../domain/schemas/findings';
 import { reportDraftSchema } from '../domain/schemas/reports';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
@@ -12,7 +14,9 @@ const stageParam = z.object({ stage: z.enum(['check-in', 'final'], { error: 'The
 const listQuery = z.object({
   stage: z.enum(['check-in', 'final']).optional(),
   size: z.uuid({ error: 'is not a size' }).optional(),
-  draft: z.coerce.number().int().min(1).optional(),
+  draft: z.coerce.number({ error: 'is a draft number' }).int('is a draft number').min(1, 'is a draft number').optional(),
+  /** A variant's name, or "-" for the main pattern (no variant). */
+  variant: z.string().trim().min(1).max(80).optional(),
 });
 
 /** Mounted at /api: a tester's own reports. */
@@ -46,19 +50,35 @@ export function trialReportsRouter(): Router {
   router.get('/reports', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
     const q = res.locals.query as z.output<typeof listQuery>;
     const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
-    res.json(await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft }));
+    res.json(await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft, variant: q.variant }));
   });
 
   // One row per alteration (and one per report without any), for a spreadsheet.
   router.get('/reports.csv', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
     const q = res.locals.query as z.output<typeof listQuery>;
     const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
-    const rows = (await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft })).flatMap((r): Record<string, string | number | boolean>[] => {
-      const base = { tester: r.tester, size: r.size, stage: r.stage, draft: r.content.draftVersion ?? '', submitted: r.submittedAt?.toISOString() ?? '', on_time: r.onTime ?? '' };
+    const mapped = new Map((await OtherAlterationMapping.findAll({ where: { trialId: trial.id } })).map((m) => [m.textKey, m.kind]));
+    const rows = (await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft, variant: q.variant })).flatMap((r): Record<string, string | number | boolean>[] => {
+      const f = r.content.fabric;
+      const base = {
+        tester: r.tester,
+        size: r.size,
+        size_sewn: r.content.sizeSewn ?? '',
+        variant: r.content.variantSewn ?? '',
+        stage: r.stage,
+        draft: r.content.draftVersion ?? '',
+        submitted: r.submittedAt?.toISOString() ?? '',
+        on_time: r.onTime ?? '',
+        fabric: f ? [f.kind, f.fibre].filter(Boolean).join(', ') : '',
+        fabric_width_mm: f?.widthMm ?? '',
+        fabric_used_mm: f?.usedMm ?? '',
+        stretch_pct: f?.stretchPct ?? '',
+        one_way: f ? f.napped : '',
+      };
       const alterations = r.content.alterations ?? [];
       return alterations.length
-        ? alterations.map((a) => ({ ...base, area: a.area, kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, amount_mm: a.amountMm, where: a.where, note: a.note }))
-        : [{ ...base, area: '', kind: '', amount_mm: '', where: '', note: '' }];
+        ? alterations.map((a) => ({ ...base, area: a.area, kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, read_as: a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? '') : '', amount_mm: a.amountMm, where: a.where, note: a.note }))
+        : [{ ...base, area: '', kind: '', read_as: '', amount_mm: '', where: '', note: '' }];
     });
     res.type('text/csv').attachment(`${trial.slug}-reports.csv`).send(Papa.unparse(rows, { newline: '\r\n' }));
   });

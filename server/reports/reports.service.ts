@@ -1,9 +1,11 @@
 import type { z } from 'zod';
-import { Enrollment, Milestone, Pattern, PatternSize, Report, Trial, User } from '../../db/models';
+import { Draft, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Report, Trial, User } from '../../db/models';
 import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { reportCompleteSchema, type ReportDraft, type reportDraftSchema } from '../domain/schemas/reports';
 import { badRequest, conflict, notFound } from '../errors';
+import { refreshFindingsQuietly } from '../findings/findings.service';
+import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { formatDue } from '../trials/trial-mail';
 
 export type Stage = 'check-in' | 'final';
@@ -35,7 +37,23 @@ export async function getReport(enrollmentId: string, stage: Stage, user: User) 
   const enrollment = await ownEnrollment(enrollmentId, user);
   const report = await Report.findOne({ where: { enrollmentId, stage } });
   const due = await dueAt(enrollment, stage);
-  return { stage, content: report?.content ?? {}, submittedAt: report?.submittedAt ?? null, dueAt: due, editable: !due || due > new Date() };
+  return { stage, content: report?.content ?? {}, submittedAt: report?.submittedAt ?? null, dueAt: due, editable: !due || due > new Date(), choices: await choicesFor(enrollment) };
+}
+
+/** What the form offers to pick from: the chart's sizes, the pattern's variants and its drafts. */
+async function choicesFor(enrollment: Enrollment & { trial: Trial & { pattern: Pattern } }) {
+  const patternId = enrollment.trial.patternId;
+  const [sizes, variants, drafts] = await Promise.all([
+    PatternSize.findAll({ where: { patternId }, order: [['position', 'ASC']] }),
+    PatternVariant.findAll({ where: { patternId }, order: [['name', 'ASC']] }),
+    Draft.findAll({ where: { patternId }, order: [['version', 'ASC']] }),
+  ]);
+  return {
+    sizes: sizes.map((s) => s.label),
+    chosenSize: sizes.find((s) => s.id === enrollment.sizeId)?.label ?? null,
+    variants: variants.map((v) => v.name),
+    drafts: drafts.map((d) => ({ version: d.version, changeNote: d.changeNote, createdAt: d.createdAt })),
+  };
 }
 
 /**
@@ -56,6 +74,8 @@ export async function saveReport(enrollmentId: string, stage: Stage, user: User,
   }
   const [report] = await Report.findOrCreate({ where: { enrollmentId, stage }, defaults: { enrollmentId, stage } });
   await report.update({ content: { ...report.content, ...input } as ReportDraft });
+  // A submitted report changed after the fact: the findings follow it.
+  if (report.submittedAt) await refreshFindingsQuietly(enrollment.trial);
   return report;
 }
 
@@ -72,11 +92,13 @@ export async function submitReport(enrollmentId: string, stage: Stage, user: Use
   }
   if (!report!.submittedAt) await report!.update({ submittedAt: new Date() });
   if (stage === 'final' && enrollment.status === 'active') await enrollment.update({ status: 'finished' });
+  await cancelObsoleteReminders({ enrollmentId: enrollment.id });
+  await refreshFindingsQuietly(enrollment.trial);
   return report!;
 }
 
 /** The reports of a trial for its staff, filtered by stage, size and draft version. */
-export async function trialReports(trial: Trial, filter: { stage?: Stage; sizeId?: string; draft?: number }) {
+export async function trialReports(trial: Trial, filter: { stage?: Stage; sizeId?: string; draft?: number; variant?: string }) {
   const enrollments = await Enrollment.findAll({
     where: { trialId: trial.id, ...(filter.sizeId ? { sizeId: filter.sizeId } : {}) },
     include: [{ model: User, as: 'user' }, { model: Report, as: 'reports' }],
@@ -86,7 +108,10 @@ export async function trialReports(trial: Trial, filter: { stage?: Stage; sizeId
   const milestones = await Milestone.findAll({ where: { trialId: trial.id } });
   return enrollments.flatMap((e) => {
     const reports = ((e as Enrollment & { reports?: Report[] }).reports ?? []).filter(
-      (r) => (!filter.stage || r.stage === filter.stage) && (!filter.draft || r.content.draftVersion === filter.draft),
+      (r) =>
+        (!filter.stage || r.stage === filter.stage) &&
+        (!filter.draft || r.content.draftVersion === filter.draft) &&
+        (!filter.variant || (filter.variant === '-' ? !r.content.variantSewn : r.content.variantSewn === filter.variant)),
     );
     return reports.map((r) => {
       const kind = MILESTONE_OF[r.stage];

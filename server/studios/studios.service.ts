@@ -3,6 +3,7 @@ import { Membership, Studio, User } from '../../db/models';
 import type { z } from 'zod';
 import type { createStudioSchema, updateStudioSchema } from '../domain/schemas/studios';
 import { STAFF_ROLES } from '../domain/roles';
+import { mergeAnalysisSettings } from '../domain/studio-settings';
 import { notFound } from '../errors';
 import { serializeStudio, serializeUser } from '../serializers';
 
@@ -42,7 +43,10 @@ export async function updateStudio(studioId: string, input: z.output<typeof upda
   const studio = await Studio.findByPk(studioId);
   if (!studio) throw notFound('studio');
   const { settings, ...fields } = input;
-  return studio.update({ ...fields, ...(settings ? { settings: { ...studio.settings, ...settings } } : {}) });
+  if (!settings) return studio.update(fields);
+  const { analysis, ...plain } = settings;
+  const merged = { ...studio.settings, ...plain, ...(analysis ? { analysis: mergeAnalysisSettings(studio.settings, analysis) } : {}) };
+  return studio.update({ ...fields, settings: merged });
 }
 
 export async function deleteStudio(studioId: string): Promise<void> {

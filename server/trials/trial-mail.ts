@@ -2,7 +2,8 @@ import { PatternSize, User, type Application, type Trial } from '../../db/models
 import type { Config } from '../config';
 import { MILESTONE_LABELS, TESTER_MILESTONES } from '../domain/trials';
 import type { Mailer } from '../mail/mailer';
-import { declinedMail, selectedMail, waitlistedMail } from '../mail/templates';
+import { declinedMail, selectedMail, waitlistedMail, type MailContent, type OptOut } from '../mail/templates';
+import { optOutFor, send as sendMail } from '../outbox/outbox.service';
 import type { DecisionEffects } from './trials.service';
 import { milestoneMap, studioOf } from './trials.service';
 
@@ -12,33 +13,43 @@ export function formatDue(date: Date, timeZone: string): string {
 }
 
 /**
- * Tells each applicant of a decision. Runs after the decision is committed: a mail that cannot be
- * sent is logged and does not undo the decision (a persistent outbox with retries comes later).
+ * Tells each applicant of a decision. Runs after the decision is committed, through the outbox:
+ * a mail that cannot be sent now stays queued for the worker's retries and does not undo the
+ * decision.
  */
 export async function sendDecisionMail(trial: Trial, effects: DecisionEffects, deps: { config: Config; mailer: Mailer }) {
   const studio = await studioOf(trial);
   const link = `${deps.config.publicUrl}/my-trials`;
   const dues = milestoneMap(trial);
-  const send = async (app: Application, build: (user: User) => Promise<Parameters<Mailer['send']>[0]>) => {
+  const send = async (app: Application, build: (user: User, optOut: OptOut | undefined) => Promise<MailContent>) => {
     const user = await User.findByPk(app.userId);
     if (!user) return;
     try {
-      await deps.mailer.send(await build(user));
+      await sendMail(deps, {
+        // One message per decision: the same decision taken again later is a new message.
+        key: `decision:${app.id}:${app.status}:${app.decidedAt?.getTime() ?? 0}`,
+        to: { id: user.id, email: user.email },
+        template: app.status,
+        category: 'trial-news',
+        studioId: trial.studioId,
+        trialId: trial.id,
+        content: await build(user, optOutFor(deps.config, user.id, 'trial-news')),
+      });
     } catch (error) {
-      console.error(`[mail] decision mail to ${user.email} not sent:`, error);
+      console.error(`[mail] decision mail to ${user.email} not recorded:`, error);
     }
   };
   for (const app of effects.selected) {
-    await send(app, async (user) => {
+    await send(app, async (user, optOut) => {
       const size = app.sizeId ? await PatternSize.findByPk(app.sizeId) : null;
       const dueLines = TESTER_MILESTONES.flatMap((kind) => (dues[kind] ? [`${MILESTONE_LABELS[kind]}: ${formatDue(dues[kind]!, user.timeZone)}`] : []));
-      return { to: user.email, ...selectedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link, sizeLabel: size?.label ?? '?', dueLines }) };
+      return selectedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link, sizeLabel: size?.label ?? '?', dueLines, optOut });
     });
   }
   for (const app of effects.waitlisted) {
-    await send(app, async (user) => ({ to: user.email, ...waitlistedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link }) }));
+    await send(app, async (user, optOut) => waitlistedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link, optOut }));
   }
   for (const app of effects.declined) {
-    await send(app, async (user) => ({ to: user.email, ...declinedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link }) }));
+    await send(app, async (user, optOut) => declinedMail({ name: user.name, trialTitle: trial.title, studioName: studio.name, link, optOut }));
   }
 }

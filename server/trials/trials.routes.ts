@@ -7,9 +7,10 @@ import { createTrialSchema, decideSchema, dueOverrideSchema, updateTrialSchema }
 import { notFound } from '../errors';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
-import { z } from 'zod';
-import { findingsFor } from '../findings/findings.service';
+import { findingsRouter } from '../findings/findings.routes';
 import { trialReportsRouter } from '../reports/reports.routes';
+import { cancelObsoleteReminders } from '../outbox/outbox.service';
+import { trialMailRouter } from '../outbox/outbox.routes';
 import { sendDecisionMail } from './trial-mail';
 import { serializeApplication, serializeTrial } from './trial-serializer';
 import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
@@ -34,7 +35,10 @@ export function trialsRouter(deps: AppDeps): Router {
     res.json(serializeTrial(await loadTrial(studioId(res), trialId(req))));
   });
   router.patch('/:trialId', write, trial, validate({ body: updateTrialSchema }), async (req, res) => {
-    res.json(serializeTrial(await updateTrial(studioId(res), trialId(req), res.locals.body)));
+    const updated = await updateTrial(studioId(res), trialId(req), res.locals.body);
+    // New dates (or a closed trial) cancel reminders queued for the old ones.
+    await cancelObsoleteReminders({ trialId: updated.id });
+    res.json(serializeTrial(updated));
   });
 
   router.get('/:trialId/applications', manage, trial, async (req, res) => {
@@ -55,6 +59,7 @@ export function trialsRouter(deps: AppDeps): Router {
 
   router.post('/:trialId/decisions', manage, trial, validate({ body: decideSchema }), async (req, res) => {
     const effects = await decide(studioId(res), trialId(req), res.locals.body);
+    await cancelObsoleteReminders({ trialId: trialId(req) });
     await sendDecisionMail(await loadTrial(studioId(res), trialId(req)), effects, deps);
     res.json({ selected: effects.selected.length, waitlisted: effects.waitlisted.length, declined: effects.declined.length });
   });
@@ -79,17 +84,9 @@ export function trialsRouter(deps: AppDeps): Router {
   });
 
   router.use('/:trialId', trialReportsRouter());
+  router.use('/:trialId/mail', trialMailRouter(deps));
 
-  // Findings computed from the submitted final reports (graders included: they triage them).
-  const findingsQuery = z.object({
-    draft: z.string().regex(/^\d+$/, 'is a draft number').optional(),
-    compare: z.string().regex(/^\d+,\d+$/, 'is two draft numbers, e.g. 1,2').optional(),
-  });
-  router.get('/:trialId/findings', read, trial, validate({ query: findingsQuery }), async (req, res) => {
-    const q = res.locals.query as z.output<typeof findingsQuery>;
-    const found = await loadTrial(studioId(res), trialId(req));
-    res.json(await findingsFor(found, { draft: q.draft, compare: q.compare ? (q.compare.split(',') as [string, string]) : undefined }));
-  });
+  router.use('/:trialId', findingsRouter());
 
   // More time for one tester: a per-milestone date that replaces the trial's for them alone.
   router.patch(
@@ -107,6 +104,7 @@ export function trialsRouter(deps: AppDeps): Router {
       if (dueAt) overrides[kind] = new Date(dueAt).toISOString();
       else delete overrides[kind];
       await enrollment.update({ dueOverrides: overrides });
+      await cancelObsoleteReminders({ enrollmentId: enrollment.id });
       res.json({ id: enrollment.id, dueOverrides: overrides });
     },
   );

@@ -65,7 +65,7 @@ describe('a tester’s report in Chromium', () => {
     const wide = await h.newPage(staff, { width: 1280, height: 800 });
     await wide.goto(`/trials/${trial.id}`);
     await wide.getByText(`${tester.name} · size 12 · draft 1`).waitFor();
-    await wide.getByText('• leg-length: -1 1/2 in (both)').waitFor();
+    await wide.getByText('• Leg length: -1 1/2 in (both)').waitFor();
     // One final report is too few to say anything: shown, not flagged.
     await wide.getByText('leg-length (remove): too few reports · 1 of 1').waitFor();
     expect(h.errors).toEqual([]);

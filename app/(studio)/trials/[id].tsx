@@ -1,4 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
+import { OutboxPanel } from '@/components/mail/outbox-panel';
+import { PhotoWall } from '@/components/photos/photo-wall';
 import { ApplicantsPanel } from '@/components/trials/applicants-panel';
 import { CallEditor } from '@/components/trials/call-editor';
 import { TargetsEditor } from '@/components/trials/targets-editor';
@@ -34,9 +36,12 @@ export default function TrialScreen() {
       <CallEditor key={`call-${trial.id}`} studioId={currentStudio.id} trial={trial} timeZone={currentStudio.timeZone} canEdit={canEdit} />
       <TargetsEditor key={`targets-${trial.id}`} studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} canEdit={canEdit} />
       {can(currentStudio.role, 'applicants.manage') ? <ApplicantsPanel studioId={currentStudio.id} trialId={trial.id} unit={session.user.lengthUnit} /> : null}
-      <ReportsPanel studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} />
+      <ReportsPanel studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} fabricUnit={session.user.fabricUnit} canMap={can(currentStudio.role, 'alterations.map')} />
+      <PhotoWall studioId={currentStudio.id} trialId={trial.id} />
       <FindingsPanel studioId={currentStudio.id} trialId={trial.id} />
+      <ButtonLink href={{ pathname: '/findings/[trialId]', params: { trialId: trial.id } }} label="Open the findings" tone="quiet" />
       {can(currentStudio.role, 'applicants.manage') ? <TestersPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
+      {can(currentStudio.role, 'applicants.manage') ? <OutboxPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
     </Screen>
   );
 }

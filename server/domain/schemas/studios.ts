@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { INVITABLE_ROLES, ROLES } from '../roles';
+import { analysisSettingsPatchSchema } from '../studio-settings';
 import { isTimeZone } from '../time-zones';
 import { emailSchema } from './auth';
 
@@ -19,6 +20,8 @@ export const updateStudioSchema = z.object({
   settings: z
     .object({
       fullerBellyMarginMm: z.number({ error: 'must be a length in millimetres' }).min(0, 'must not be negative').max(200, 'must be at most 20 cm'),
+      /** Thresholds of the findings; null puts one back to its default. */
+      analysis: analysisSettingsPatchSchema,
     })
     .partial()
     .optional(),

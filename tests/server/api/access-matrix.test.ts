@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Application, Draft, DraftFile, Enrollment, Invitation, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
+import { Application, Draft, DraftFile, Enrollment, Invitation, OutboxMessage, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
 import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
@@ -26,6 +26,8 @@ type Ctx = StudioWorld & {
   otherApplicationId: string;
   draftFileId: string;
   photoId: string;
+  /** A failed message in the trial's outbox. */
+  messageId: string;
   /** An application of the caller's own (every signed-in persona has one). */
   ownApplicationId: string | null;
 };
@@ -217,12 +219,28 @@ const MATRIX: Record<string, Row> = {
   'POST /api/me/enrollments/:enrollmentId/photos': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/photos`, body: {} }) },
   'DELETE /api/me/photos/:photoId': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/photos/${c.photoId}` }) },
   'POST /api/photos/:photoId/link': { allow: STAFF, hidden: true, call: (c) => ({ path: `/api/photos/${c.photoId}/link` }) },
+  // The photo is someone else's for every caller (owners are exercised in photo-wall.test.ts).
+  'PATCH /api/me/photos/:photoId': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/photos/${c.photoId}`, body: { consent: 'may-share' } }) },
+  'GET /api/studios/:studioId/trials/:trialId/photos': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/photos` }) },
   'GET /api/me/enrollments/:enrollmentId/reports/:stage': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final` }) },
   'PUT /api/me/enrollments/:enrollmentId/reports/:stage': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final`, body: { sizeSewn: 'M' } }) },
   'POST /api/me/enrollments/:enrollmentId/reports/:stage/submit': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/enrollments/${c.enrollmentId}/reports/final/submit` }) },
   'GET /api/studios/:studioId/trials/:trialId/reports': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports` }) },
   'GET /api/studios/:studioId/trials/:trialId/reports.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports.csv` }) },
   'GET /api/studios/:studioId/trials/:trialId/findings': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings` }) },
+  'PUT /api/studios/:studioId/trials/:trialId/findings/triage': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/triage`, body: { kind: 'back-rise', direction: 'add', state: 'will-fix' } }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/findings/notes': {
+    allow: STAFF,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/notes`, body: { kind: 'back-rise', direction: 'add', body: 'Check the back crotch point.' } }),
+  },
+  'GET /api/studios/:studioId/trials/:trialId/other-alterations': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/other-alterations` }) },
+  'PUT /api/studios/:studioId/trials/:trialId/other-alterations': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/other-alterations`, body: { text: 'took in the back waist', kind: 'waist' } }),
+  },
   'GET /api/calls/:slug': { allow: EVERYONE, call: (c) => ({ path: `/api/calls/${c.trialSlug}` }) },
   'GET /api/calls/:slug/my-advice': { allow: SIGNED_IN, call: (c) => ({ path: `/api/calls/${c.trialSlug}/my-advice` }) },
   'POST /api/calls/:slug/applications': {
@@ -238,6 +256,14 @@ const MATRIX: Record<string, Row> = {
     allow: SIGNED_IN,
     call: (c) => ({ path: `/api/me/applications/${c.ownApplicationId ?? c.enrollmentId}/withdraw` }),
   },
+  'GET /api/studios/:studioId/trials/:trialId/mail': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/mail` }) },
+  'POST /api/studios/:studioId/trials/:trialId/mail/:messageId/resend': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/mail/${c.messageId}/resend` }),
+  },
+  // The signed link is the credential: anyone may open it; a bad one gets a 400 (tested in outbox.test.ts).
+  'GET /api/mail/opt-out/:token': { allow: EVERYONE, call: () => ({ path: '/api/mail/opt-out/not-a-signed-token' }) },
+  'POST /api/mail/opt-out/:token': { allow: EVERYONE, call: () => ({ path: '/api/mail/opt-out/not-a-signed-token' }) },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {
@@ -316,6 +342,7 @@ describe('access matrix', () => {
       const draft = await Draft.create({ patternId: pattern.id, version: 1, changeNote: 'First', createdById: null });
       const draftFile = await DraftFile.create({ draftId: draft.id, kind: 'print-a4', originalName: 'a4.pdf', objectKey: `drafts/${draft.id}.pdf`, bytes: 10 });
       const photo = await Photo.create({ enrollmentId: enrollment.id, stage: 'final', view: 'front', consent: 'staff-only', fullKey: `photos/${draft.id}.jpg`, thumbKey: `photos/${draft.id}-t.jpg`, width: 10, height: 10 });
+      const message = await OutboxMessage.create({ idempotencyKey: `matrix:${token}`, recipientId: otherApp.userId, recipientEmail: `matrix-${token.slice(0, 8).toLowerCase()}@example.test`, template: 'declined', category: 'trial-news', studioId: world.studio.id, trialId: trial.id, subject: 'Matrix', text: 'Matrix', html: null, status: 'failed', attempts: 5, nextAttemptAt: new Date() });
       let ownApplicationId: string | null = null;
       if (user) {
         const ownTrial = await Trial.create({ studioId: world.studio.id, patternId: pattern.id, slug: `own-${token.slice(0, 12).toLowerCase()}`, title: 'Own', state: 'open', coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] } });
@@ -336,6 +363,7 @@ describe('access matrix', () => {
         otherApplicationId: otherApp.id,
         draftFileId: draftFile.id,
         photoId: photo.id,
+        messageId: message.id,
         ownApplicationId,
       });
       const [method] = route.split(' ');

@@ -98,8 +98,8 @@ describe('check-in and final reports', () => {
     const csv = await request(t.app).get(`${base}/reports.csv?stage=final`).set(as(w.users.grader));
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     const lines = csv.text.trim().split('\r\n');
-    expect(lines[0]).toBe('tester,size,stage,draft,submitted,on_time,area,kind,amount_mm,where,note');
-    expect(lines.some((l) => l.includes('back-rise,19.05,back'))).toBe(true);
+    expect(lines[0]).toBe('tester,size,size_sewn,variant,stage,draft,submitted,on_time,fabric,fabric_width_mm,fabric_used_mm,stretch_pct,one_way,area,kind,read_as,amount_mm,where,note');
+    expect(lines.some((l) => l.includes('back-rise,,19.05,back'))).toBe(true);
     const bad = await request(t.app).get(`${base}/reports?stage=middle`).set(as(w.users.grader));
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.body.error.fields)).toEqual(['stage']);

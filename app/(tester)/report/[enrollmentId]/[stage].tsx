@@ -1,7 +1,9 @@
 import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Switch, View } from 'react-native';
+import { PhotosSection } from '@/components/photos/photos-section';
 import { AlterationsEditor } from '@/components/reports/alterations-editor';
+import { FabricUsedEditor } from '@/components/reports/fabric-used-editor';
 import { describeInstant } from '@/components/trials/dates';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
@@ -41,6 +43,7 @@ export default function ReportScreen() {
   };
   const category = mine.trial.category as GarmentCategory;
   const unit = session.user.lengthUnit;
+  const choices = report.choices;
   const title = stage === 'final' ? 'Final report' : 'Toile check-in';
   const fieldErrors = { ...(status.fields ?? {}), ...(submitted?.fields ?? {}) };
 
@@ -53,15 +56,34 @@ export default function ReportScreen() {
       </View>
       {readOnly ? <Notice tone="info">The due time has passed: this report can no longer be changed. Ask the studio if you need more time.</Notice> : null}
       <Card title="What you sewed">
-        <TextField label="Size sewn" value={content.sizeSewn ?? ''} editable={!readOnly} onChangeText={(sizeSewn) => update({ sizeSewn })} error={fieldErrors.sizeSewn} hint={mine.size ? `You were chosen for size ${mine.size.label}; say if you blended sizes.` : undefined} />
-        <TextField
-          label="Draft version sewn"
-          value={content.draftVersion == null ? '' : String(content.draftVersion)}
-          editable={!readOnly}
-          inputMode="numeric"
-          onChangeText={(text) => update({ draftVersion: /^\d+$/.test(text.trim()) ? Number(text) : null })}
-          error={fieldErrors.draftVersion}
-        />
+        <TextField label="Size sewn" value={content.sizeSewn ?? ''} editable={!readOnly} onChangeText={(sizeSewn) => update({ sizeSewn })} error={fieldErrors.sizeSewn} hint={mine.size ? `You were chosen for size ${mine.size.label}${choices?.sizes.length ? ` (chart sizes: ${choices.sizes.join(', ')})` : ''}; say if you blended sizes, e.g. “10 waist, 12 hip”.` : undefined} />
+        {choices?.drafts.length ? (
+          <ChoiceGroup
+            label="Draft version sewn"
+            options={choices.drafts.map((d) => ({ value: String(d.version), label: `Draft ${d.version}` }))}
+            value={content.draftVersion == null ? null : String(content.draftVersion)}
+            onChange={(v) => !readOnly && update({ draftVersion: Number(v) })}
+            error={fieldErrors.draftVersion}
+          />
+        ) : (
+          <TextField
+            label="Draft version sewn"
+            value={content.draftVersion == null ? '' : String(content.draftVersion)}
+            editable={!readOnly}
+            inputMode="numeric"
+            onChangeText={(text) => update({ draftVersion: /^\d+$/.test(text.trim()) ? Number(text) : null })}
+            error={fieldErrors.draftVersion}
+          />
+        )}
+        {choices?.variants.length ? (
+          <ChoiceGroup
+            label="Variant sewn"
+            options={[{ value: '', label: 'The main pattern' }, ...choices.variants.map((v) => ({ value: v, label: v }))]}
+            value={content.variantSewn === undefined ? null : (content.variantSewn ?? '')}
+            onChange={(v) => !readOnly && update({ variantSewn: v === '' ? null : v })}
+            error={fieldErrors.variantSewn}
+          />
+        ) : null}
       </Card>
       <Card title="Fit">
         {fieldErrors.fit ? <AppText variant="caption" style={styles.warn}>{`Fit: ${fieldErrors.fit}`}</AppText> : null}
@@ -78,6 +100,9 @@ export default function ReportScreen() {
       <Card title="Alterations you made">
         <AlterationsEditor category={category} value={content.alterations ?? []} unit={unit} readOnly={readOnly} onChange={(alterations) => update({ alterations })} errors={fieldErrors} />
       </Card>
+      <Card title="Fabric used">
+        <FabricUsedEditor value={content.fabric} lengthUnit={unit} fabricUnit={session.user.fabricUnit} readOnly={readOnly} onChange={(fabric) => update({ fabric })} errors={fieldErrors} />
+      </Card>
       <Card title="Instructions">
         <AppText variant="caption">Steps that confused you: the step number and what was unclear.</AppText>
         {(content.unclearSteps ?? []).map((s, i) => (
@@ -87,6 +112,9 @@ export default function ReportScreen() {
           </View>
         ))}
         {!readOnly ? <Button label="Add a step" tone="quiet" onPress={() => update({ unclearSteps: [...(content.unclearSteps ?? []), { step: '', problem: '' }] })} /> : null}
+      </Card>
+      <Card title="Photos">
+        <PhotosSection enrollmentId={enrollmentId} stage={stage} readOnly={readOnly} />
       </Card>
       <Card title="Verdict">
         <TextField label="Overall verdict" value={content.verdict ?? ''} editable={!readOnly} multiline onChangeText={(verdict) => update({ verdict })} error={fieldErrors.verdict} />

@@ -1,0 +1,55 @@
+import PgBoss from 'pg-boss';
+import type { OutboxDeps } from '../outbox/outbox.service';
+import { flushOutbox } from '../outbox/outbox.service';
+import { runMailTick } from './tick';
+
+/** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
+export const MAIL_TICK_QUEUE = 'mail-tick';
+export const OUTBOX_FLUSH_QUEUE = 'outbox-flush';
+
+export type JobQueue = {
+  boss: PgBoss;
+  stop(): Promise<void>;
+};
+
+export type JobQueueOptions = {
+  databaseUrl: string;
+  /** Cron for the reminder and digest sweep; every 5 minutes keeps "08:00" within 08:05. */
+  tickCron?: string;
+  /** Cron for retries of failed sends. */
+  flushCron?: string;
+  /** Set false in tests that drive the clock themselves. */
+  schedule?: boolean;
+  /** Log each tick that did something (on by default). */
+  log?: boolean;
+};
+
+/**
+ * pg-boss in its own schema of our database: the schedules and jobs survive a restart, and
+ * with several instances each cron slot runs once (pg-boss de-duplicates schedules, and the
+ * outbox claims rows under SKIP LOCKED, so even two runs at once send nothing twice).
+ */
+export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions): Promise<JobQueue> {
+  const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 3, application_name: 'basted-jobs' });
+  boss.on('error', (error: unknown) => console.error('[jobs]', error));
+  await boss.start();
+  await boss.createQueue(MAIL_TICK_QUEUE, { name: MAIL_TICK_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+  await boss.createQueue(OUTBOX_FLUSH_QUEUE, { name: OUTBOX_FLUSH_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+  if (options.schedule !== false) {
+    await boss.schedule(MAIL_TICK_QUEUE, options.tickCron ?? '*/5 * * * *');
+    await boss.schedule(OUTBOX_FLUSH_QUEUE, options.flushCron ?? '* * * * *');
+  }
+  await boss.work(MAIL_TICK_QUEUE, async () => {
+    const result = await runMailTick(deps, new Date());
+    if (options.log !== false && (result.reminders.queued || result.digests.queued || result.delivered.length)) console.log('[jobs] mail tick', JSON.stringify(result));
+  });
+  await boss.work(OUTBOX_FLUSH_QUEUE, async () => {
+    await flushOutbox(deps, new Date());
+  });
+  return {
+    boss,
+    async stop() {
+      await boss.stop({ graceful: true, timeout: 8_000 });
+    },
+  };
+}

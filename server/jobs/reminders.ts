@@ -1,0 +1,147 @@
+import { Op } from 'sequelize';
+import { Enrollment, Membership, Milestone, Report, Studio, Trial, User } from '../../db/models';
+import type { Config } from '../config';
+import { TESTER_EXPECTATIONS, TESTER_MILESTONES, type MilestoneKind } from '../domain/trials';
+import { digestMail, reminderMail, type DigestLine } from '../mail/templates';
+import { enqueue, optOutFor } from '../outbox/outbox.service';
+import { formatDue } from '../trials/trial-mail';
+import { REMINDING_TRIAL_STATES, STAGE_OF, dueFor } from './reminder-state';
+import { daysLate, digestDayAt, reminderDueAt, safeZone } from './schedule';
+
+/** What each tester milestone asks for, in the words of a reminder. */
+export const WHAT_IS_DUE: Partial<Record<MilestoneKind, string>> = { 'toile-check-in': 'toile check-in', 'final-report': 'final report' };
+
+type Loaded = Enrollment & { user: User; trial: Trial & { milestones: Milestone[]; studio: Studio }; reports: Report[] };
+
+async function activeEnrollments(): Promise<Loaded[]> {
+  const rows = await Enrollment.findAll({
+    where: { status: 'active' },
+    include: [
+      { model: User, as: 'user', required: true },
+      { model: Report, as: 'reports' },
+      {
+        model: Trial,
+        as: 'trial',
+        required: true,
+        where: { state: { [Op.in]: [...REMINDING_TRIAL_STATES] } },
+        include: [{ model: Milestone, as: 'milestones' }, { model: Studio, as: 'studio' }],
+      },
+    ],
+  });
+  return rows as Loaded[];
+}
+
+const submitted = (e: Loaded, kind: MilestoneKind) => e.reports.some((r) => r.stage === STAGE_OF[kind] && r.submittedAt !== null);
+
+/** Each unsubmitted tester milestone of an active enrollment, with the tester's own due time. */
+function openItems(e: Loaded) {
+  return TESTER_MILESTONES.flatMap((kind) => {
+    const due = dueFor(e, e.trial.milestones, kind);
+    return due && !submitted(e, kind) ? [{ kind, due }] : [];
+  });
+}
+
+export type SweepResult = { queued: number; skipped: number };
+
+function count(result: SweepResult, status: string | undefined) {
+  if (status === 'queued') result.queued += 1;
+  else if (status === 'skipped') result.skipped += 1;
+}
+
+/**
+ * Records the reminders due at `now` for every active tester who has not submitted what a
+ * milestone asks. Idempotent: the key names the enrollment, milestone, stage and due time, so
+ * running it again (or in two processes) adds nothing, and a moved due date gets fresh keys.
+ */
+export async function sweepReminders(config: Config, now: Date): Promise<SweepResult> {
+  const result: SweepResult = { queued: 0, skipped: 0 };
+  for (const e of await activeEnrollments()) {
+    for (const { kind, due } of openItems(e)) {
+      const planned = reminderDueAt(due, e.user.timeZone, now);
+      if (!planned) continue;
+      const row = await enqueue(
+        { config },
+        {
+          key: `reminder:${e.id}:${kind}:${planned.stage}:${due.toISOString()}`,
+          to: { id: e.user.id, email: e.user.email },
+          template: planned.stage === 'overdue' ? 'overdue' : `reminder-${planned.stage}`,
+          category: 'reminders',
+          studioId: e.trial.studioId,
+          trialId: e.trial.id,
+          enrollmentId: e.id,
+          milestoneKind: kind,
+          dueAt: due,
+          content: reminderMail({
+            name: e.user.name,
+            trialTitle: e.trial.title,
+            studioName: e.trial.studio?.name ?? '',
+            link: `${config.publicUrl}/my-trials`,
+            stage: planned.stage,
+            what: WHAT_IS_DUE[kind] ?? kind,
+            expectation: TESTER_EXPECTATIONS[kind] ?? '',
+            dueText: formatDue(due, safeZone(e.user.timeZone)),
+            optOut: optOutFor(config, e.user.id, 'reminders'),
+          }),
+        },
+        { now },
+      );
+      count(result, row?.status);
+    }
+  }
+  return result;
+}
+
+/**
+ * Once a day, from 08:00 in the studio's time zone, the owner and coordinators get the list of
+ * testers whose due time has passed without a submission. Nothing is sent on a day with none.
+ */
+export async function sweepDigests(config: Config, now: Date): Promise<SweepResult> {
+  const result: SweepResult = { queued: 0, skipped: 0 };
+  const byStudio = new Map<string, { studio: Studio; lines: DigestLine[] }>();
+  for (const e of await activeEnrollments()) {
+    const studio = e.trial.studio;
+    if (!studio) continue;
+    for (const { kind, due } of openItems(e)) {
+      if (due > now) continue;
+      const entry = byStudio.get(studio.id) ?? { studio, lines: [] };
+      entry.lines.push({
+        trialTitle: e.trial.title,
+        tester: e.user.name,
+        what: WHAT_IS_DUE[kind] ?? kind,
+        dueText: formatDue(due, safeZone(studio.timeZone)),
+        daysLate: daysLate(due, now, studio.timeZone),
+      });
+      byStudio.set(studio.id, entry);
+    }
+  }
+  for (const { studio, lines } of byStudio.values()) {
+    const day = digestDayAt(now, studio.timeZone);
+    if (!day) continue;
+    lines.sort((a, b) => a.trialTitle.localeCompare(b.trialTitle) || b.daysLate - a.daysLate || a.tester.localeCompare(b.tester));
+    const staff = await Membership.findAll({ where: { studioId: studio.id, role: { [Op.in]: ['owner', 'coordinator'] } }, include: [{ model: User, as: 'user', required: true }] });
+    for (const m of staff) {
+      const user = m.user!;
+      const row = await enqueue(
+        { config },
+        {
+          key: `digest:${studio.id}:${user.id}:${day}`,
+          to: { id: user.id, email: user.email },
+          template: 'digest',
+          category: 'digest',
+          studioId: studio.id,
+          content: digestMail({
+            name: user.name,
+            studioName: studio.name,
+            dateText: new Intl.DateTimeFormat('en-GB', { dateStyle: 'full', timeZone: safeZone(studio.timeZone) }).format(now),
+            lines,
+            link: `${config.publicUrl}/trials`,
+            optOut: optOutFor(config, user.id, 'digest'),
+          }),
+        },
+        { now },
+      );
+      count(result, row?.status);
+    }
+  }
+  return result;
+}
