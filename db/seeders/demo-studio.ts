@@ -1,4 +1,7 @@
 import bcrypt from 'bcryptjs';
+import dayjs from 'dayjs';
+import timezone from 'dayjs/plugin/timezone';
+import utc from 'dayjs/plugin/utc';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Role } from '../../server/domain/roles';
 import { proposeSelection } from '../../server/domain/coverage';
@@ -6,6 +9,9 @@ import type { MeasurementKey } from '../../server/domain/measurements';
 import { adviseSize } from '../../server/domain/size-advice';
 import { Application, Enrollment, FabricNeed, Membership, Milestone, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User } from '../models';
 import { seedDemoReports } from './demo-reports';
+
+dayjs.extend(utc);
+dayjs.extend(timezone);
 
 /**
  * The demo studio: an invented small pattern brand with its staff and a few volunteer testers.
@@ -28,6 +34,8 @@ const YD = 914.4; // mm per yard, exact
 // 1 1/2 in to 16, then 2 in), the inseam ungraded (height is handled by leg advice).
 const DEMO_SIZES = ['0', '2', '4', '6', '8', '10', '12', '14', '16', '18', '20'];
 const DEMO_HIP = [34, 35, 36, 37, 38, 39.5, 41, 42.5, 44, 46, 48];
+/** Where the invented applicants live, so reminders go out on several mornings. */
+const APPLICANT_ZONES = ['Europe/Lisbon', 'Europe/Berlin', 'America/New_York', 'America/Los_Angeles', 'Australia/Melbourne', 'Pacific/Auckland'];
 export const DEMO_PATTERN_NAME = 'Wide-leg trousers (demo)';
 
 async function seedDemoPattern(studio: Studio, transaction: Transaction) {
@@ -135,7 +143,9 @@ async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: 
     ['release', 30],
   ];
   for (const [kind, offset] of dates) {
-    const dueAt = new Date(now + offset * day);
+    // The final report is due at 8 in the evening, studio time, of the day after loading: each
+    // tester's reminders then fall on their own mornings (testers live in several zones).
+    const dueAt = kind === 'final-report' ? dayjs(now).tz(DEMO_STUDIO.timeZone).add(1, 'day').hour(20).minute(0).second(0).millisecond(0).toDate() : new Date(now + offset * day);
     await Milestone.create({ trialId: trial.id, kind: kind as never, dueAt }, { transaction });
   }
   const chart = {
@@ -152,7 +162,7 @@ async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: 
     const measurementsMm = { hip: hipIn * IN, waist: (hipIn - 9.5 - (i % 3) * 0.5) * IN, height: heightMm, inseam: (heightMm * 0.45) };
     const [user] = await User.findOrCreate({
       where: { email: `applicant${n}@demo.basted.test` },
-      defaults: { email: `applicant${n}@demo.basted.test`, name: `Demo Applicant ${n}`, passwordHash },
+      defaults: { email: `applicant${n}@demo.basted.test`, name: `Demo Applicant ${n}`, passwordHash, timeZone: APPLICANT_ZONES[i % APPLICANT_ZONES.length] },
       transaction,
     });
     await TesterProfile.findOrCreate({ where: { userId: user.id }, defaults: { userId: user.id, measurementsMm, experience: ['beginner', 'confident', 'advanced'][i % 3] }, transaction });

@@ -6,7 +6,7 @@ import { digestMail, reminderMail, type DigestLine } from '../mail/templates';
 import { enqueue, optOutFor } from '../outbox/outbox.service';
 import { formatDue } from '../trials/trial-mail';
 import { REMINDING_TRIAL_STATES, STAGE_OF, dueFor } from './reminder-state';
-import { daysLate, digestDayAt, reminderDueAt, safeZone } from './schedule';
+import { daysLate, daysUntil, digestDayAt, reminderDueAt, safeZone } from './schedule';
 
 /** What each tester milestone asks for, in the words of a reminder. */
 export const WHAT_IS_DUE: Partial<Record<MilestoneKind, string>> = { 'toile-check-in': 'toile check-in', 'final-report': 'final report' };
@@ -80,6 +80,7 @@ export async function sweepReminders(config: Config, now: Date): Promise<SweepRe
             what: WHAT_IS_DUE[kind] ?? kind,
             expectation: TESTER_EXPECTATIONS[kind] ?? '',
             dueText: formatDue(due, safeZone(e.user.timeZone)),
+            daysLeft: daysUntil(due, now, e.user.timeZone),
             optOut: optOutFor(config, e.user.id, 'reminders'),
           }),
         },

@@ -66,7 +66,10 @@ export function reminderPlan(dueAt: Date, timeZone: string): PlannedReminder[] {
 
 /** The reminder that is due at this instant, if any. */
 export function reminderDueAt(dueAt: Date, timeZone: string, now: Date): PlannedReminder | null {
-  return reminderPlan(dueAt, timeZone).find((p) => p.sendAt <= now && now < p.until) ?? null;
+  const due = reminderPlan(dueAt, timeZone).find((p) => p.sendAt <= now && now < p.until) ?? null;
+  // An early reminder caught on the eve of the due day would repeat the "tomorrow" one of 08:00.
+  if (due?.stage === '3d' && daysUntil(dueAt, now, timeZone) < 2) return null;
+  return due;
 }
 
 /** The reminders still ahead of this instant (what the Mail screen shows as planned). */
@@ -83,4 +86,9 @@ export function digestDayAt(now: Date, timeZone: string): string | null {
 /** Whole calendar days between the due date and today, in a zone (0 when due earlier today). */
 export function daysLate(dueAt: Date, now: Date, timeZone: string): number {
   return Math.max(0, dayjs.utc(localDate(now, timeZone)).diff(dayjs.utc(localDate(dueAt, timeZone)), 'day'));
+}
+
+/** Whole calendar days from today to the due date, in a zone (0 on the day, negative once past). */
+export function daysUntil(dueAt: Date, now: Date, timeZone: string): number {
+  return dayjs.utc(localDate(dueAt, timeZone)).diff(dayjs.utc(localDate(now, timeZone)), 'day');
 }

@@ -115,10 +115,13 @@ export function newDraftMail(input: TrialMail & { version: number; changeNote: s
 export type ReminderStage = '3d' | '1d' | 'day' | 'overdue';
 
 export function reminderMail(
-  input: TrialMail & { stage: ReminderStage; what: string; expectation: string; dueText: string },
+  input: TrialMail & { stage: ReminderStage; what: string; expectation: string; dueText: string; daysLeft?: number },
 ): MailContent {
+  // The early reminder says how many days are really left: a tester chosen late gets it nearer the date.
+  const left = Math.min(3, Math.max(1, input.daysLeft ?? 3));
+  const inDays = left === 1 ? 'tomorrow' : `in ${left === 3 ? 'three' : 'two'} days`;
   const opening: Record<ReminderStage, string> = {
-    '3d': `A friendly nudge: your ${input.what} for "${input.trialTitle}" is due in three days, on ${input.dueText}.`,
+    '3d': `A friendly nudge: your ${input.what} for "${input.trialTitle}" is due ${inDays}, on ${input.dueText}.`,
     '1d': `Your ${input.what} for "${input.trialTitle}" is due tomorrow, on ${input.dueText}.`,
     day: `Your ${input.what} for "${input.trialTitle}" is due today, on ${input.dueText}.`,
     overdue: `Your ${input.what} for "${input.trialTitle}" was due on ${input.dueText} and has not reached ${input.studioName} yet.`,
@@ -129,7 +132,7 @@ export function reminderMail(
       : input.expectation;
   const lines = [`Hello ${input.name},`, opening[input.stage], ask];
   const subjects: Record<ReminderStage, string> = {
-    '3d': `Due in 3 days: ${input.what}, ${input.trialTitle}`,
+    '3d': `${left === 1 ? 'Due tomorrow' : `Due in ${left} days`}: ${input.what}, ${input.trialTitle}`,
     '1d': `Due tomorrow: ${input.what}, ${input.trialTitle}`,
     day: `Due today: ${input.what}, ${input.trialTitle}`,
     overdue: `Overdue: ${input.what}, ${input.trialTitle}`,

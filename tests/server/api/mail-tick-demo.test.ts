@@ -40,15 +40,21 @@ describe('the demo trial and the mail:tick command', () => {
     expect(owed.length).toBeGreaterThan(0);
     expect(done.length).toBeGreaterThan(0);
 
-    // The demo testers keep the default zone (UTC); the plan depends on the hour the demo was loaded.
-    const plan = reminderPlan(due, 'UTC');
-    for (const step of plan) {
-      const at = new Date(step.sendAt.getTime() + 5 * 60_000);
-      await tickAt(at);
-      await tickAt(at); // run twice: nothing more goes out
+    // The demo testers live in several zones: each one's reminders fall on their own mornings.
+    const zoneOf = new Map(enrollments.map((e) => [email(e), (e as Enrollment & { user: User }).user.timeZone]));
+    expect(new Set(owed.map((a) => zoneOf.get(a))).size).toBeGreaterThan(1);
+    const plans = new Map(owed.map((a) => [a, reminderPlan(due, zoneOf.get(a)!)]));
+    const instants = [...new Set([...plans.values()].flat().map((p) => p.sendAt.getTime() + 5 * 60_000))].sort((a, b) => a - b);
+    for (const at of instants) {
+      await tickAt(new Date(at));
+      await tickAt(new Date(at)); // run twice: nothing more goes out
     }
-    const expectedSubjects = plan.map((p) => ({ '3d': 'Due in 3 days', '1d': 'Due tomorrow', day: 'Due today', overdue: 'Overdue' })[p.stage]);
-    for (const address of owed) expect(h.capture.to(address).map((m) => m.subject.split(':')[0])).toEqual(expectedSubjects);
+    const subject = { '3d': 'Due in 3 days', '1d': 'Due tomorrow', day: 'Due today', overdue: 'Overdue' } as const;
+    for (const address of owed) {
+      const expected = plans.get(address)!.map((p) => subject[p.stage]);
+      expect(expected.length).toBeGreaterThan(0);
+      expect(h.capture.to(address).map((m) => m.subject.split(':')[0])).toEqual(expected);
+    }
     for (const address of done) expect(h.capture.to(address).filter((m) => m.subject.includes('final report'))).toEqual([]);
 
     // The studio's owner and coordinator got one list of overdue testers on each morning that had one.

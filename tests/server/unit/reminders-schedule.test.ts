@@ -1,4 +1,5 @@
-import { daysLate, digestDayAt, reminderDueAt, reminderPlan, upcomingReminders } from '../../../server/jobs/schedule';
+import { daysLate, daysUntil, digestDayAt, reminderDueAt, reminderPlan, upcomingReminders } from '../../../server/jobs/schedule';
+import { reminderMail } from '../../../server/mail/templates';
 
 const iso = (d: Date) => d.toISOString();
 const plan = (due: string, zone: string) => reminderPlan(new Date(due), zone).map((p) => ({ stage: p.stage, sendAt: iso(p.sendAt), until: iso(p.until) }));
@@ -78,5 +79,33 @@ describe('digest day and lateness in the studio’s zone', () => {
   it('days late count calendar days in the zone', () => {
     expect(daysLate(new Date('2026-12-10T17:00:00Z'), new Date('2026-12-10T20:00:00Z'), 'Europe/Lisbon')).toBe(0);
     expect(daysLate(new Date('2026-12-10T17:00:00Z'), new Date('2026-12-12T08:00:00Z'), 'Europe/Lisbon')).toBe(2);
+  });
+});
+
+describe('the early reminder says how many days are really left', () => {
+  // Due 2026-12-03 at 12:00 in Los Angeles (20:00 UTC). The early reminder's window runs from
+  // 08:00 three local days before until the "tomorrow" one at 08:00 on 2 December local.
+  const due = new Date('2026-12-03T20:00:00Z');
+  const zone = 'America/Los_Angeles';
+
+  it('counts calendar days in the tester’s zone', () => {
+    expect(daysUntil(due, new Date('2026-11-30T16:05:00Z'), zone)).toBe(3); // 08:05 on 30 Nov in LA
+    expect(daysUntil(due, new Date('2026-12-01T09:00:00Z'), zone)).toBe(2); // 01:00 on 1 Dec in LA
+    expect(daysUntil(due, new Date('2026-12-02T08:05:00Z'), zone)).toBe(1); // 00:05 on 2 Dec in LA
+    expect(daysUntil(due, new Date('2026-12-03T17:00:00Z'), zone)).toBe(0);
+  });
+
+  it('a tester chosen late gets “in 2 days”, not “in 3 days”', () => {
+    const late = new Date('2026-12-01T09:00:00Z'); // 01:00 on 1 Dec in LA: inside the early window
+    expect(reminderDueAt(due, zone, late)?.stage).toBe('3d');
+    const base = { name: 'Ada', trialTitle: 'Wide-leg trousers', studioName: 'Studio', link: 'http://basted.test/my-trials', stage: '3d' as const, what: 'final report', expectation: '', dueText: '3 Dec 2026, 12:00' };
+    const mail = reminderMail({ ...base, daysLeft: daysUntil(due, late, zone) });
+    expect(mail.subject).toBe('Due in 2 days: final report, Wide-leg trousers');
+    expect(mail.text).toMatch(/is due in two days, on 3 Dec 2026, 12:00/);
+    expect(reminderMail({ ...base, daysLeft: 3 }).subject).toBe('Due in 3 days: final report, Wide-leg trousers');
+    // Still inside the early window at 00:05 on the eve of the due day, but the "tomorrow" one
+    // comes at 08:00: nothing is sent before it.
+    expect(reminderDueAt(due, zone, new Date('2026-12-02T08:05:00Z'))).toBeNull();
+    expect(reminderDueAt(due, zone, new Date('2026-12-02T16:05:00Z'))?.stage).toBe('1d');
   });
 });

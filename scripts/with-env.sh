@@ -1,0 +1,6 @@
+#!/usr/bin/env bash
+# Runs one command with the local ports and folders of scripts/env.sh (the database, the fake
+# S3 and SMTP servers), e.g. the database commands and the mail clock from package.json.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/env.sh"
+exec "$@"
