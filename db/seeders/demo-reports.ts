@@ -9,6 +9,7 @@ import { Application, Draft, DraftDownload, DraftFile, Enrollment, FabricNeed, M
 import { renderFigure, type FigureView } from './demo-figures';
 // Only read inside functions, so the two seeders may import each other.
 import { DEMO_STUDIO, DEMO_TRIAL_SLUG } from './demo-studio';
+import { assemblePdf } from './minimal-pdf';
 
 /**
  * The demo trial's second act: two draft versions of the demo trousers, the testers' check-ins on
@@ -389,16 +390,5 @@ export function demoPdf(lines: string[]): Buffer {
     '<< /Type /Font /Subtype /Type1 /BaseFont /Helvetica /Encoding /WinAnsiEncoding >>',
     `<< /Length ${Buffer.byteLength(stream, 'latin1')} >>\nstream\n${stream}\nendstream`,
   ];
-  let text = '%PDF-1.4\n';
-  const offsets: number[] = [];
-  objects.forEach((body, i) => {
-    offsets.push(Buffer.byteLength(text, 'latin1'));
-    text += `${i + 1} 0 obj\n${body}\nendobj\n`;
-  });
-  const xref = Buffer.byteLength(text, 'latin1');
-  // Each entry is exactly 20 bytes: 10-digit offset, 5-digit generation, n/f, space and line feed.
-  text += `xref\n0 ${objects.length + 1}\n0000000000 65535 f \n`;
-  for (const offset of offsets) text += `${String(offset).padStart(10, '0')} 00000 n \n`;
-  text += `trailer\n<< /Size ${objects.length + 1} /Root 1 0 R >>\nstartxref\n${xref}\n%%EOF\n`;
-  return Buffer.from(text, 'latin1');
+  return assemblePdf(objects);
 }

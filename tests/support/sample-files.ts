@@ -1,4 +1,5 @@
 import sharp from 'sharp';
+import { assemblePdf } from '../../db/seeders/minimal-pdf';
 
 /** Sample files for upload tests, built in code so the repository holds no binaries. */
 
@@ -42,27 +43,7 @@ export async function jpegWithGpsAndOrientation(): Promise<Buffer> {
   return Buffer.from(piexif.insert(exif, plain.toString('binary')), 'binary');
 }
 
-/**
- * The smallest useful PDF, written out by hand: the "%PDF-1.4" header (ISO 32000-1 §7.5.2), a
- * catalog, a page tree with one empty A4 page, a cross-reference table with each object's byte
- * offset, and the trailer ending in %%EOF (§7.5.4–7.5.5).
- */
+/** The smallest useful PDF: a catalog and a page tree with one empty A4 page (see assemblePdf). */
 export function tinyPdf(): Buffer {
-  const objects = [
-    '<< /Type /Catalog /Pages 2 0 R >>',
-    '<< /Type /Pages /Kids [3 0 R] /Count 1 >>',
-    '<< /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] >>',
-  ];
-  let text = '%PDF-1.4\n';
-  const offsets: number[] = [];
-  objects.forEach((body, i) => {
-    offsets.push(Buffer.byteLength(text, 'latin1'));
-    text += `${i + 1} 0 obj\n${body}\nendobj\n`;
-  });
-  const xref = Buffer.byteLength(text, 'latin1');
-  // Each xref entry is exactly 20 bytes: 10-digit offset, 5-digit generation, n/f, then space + LF.
-  text += `xref\n0 ${objects.length + 1}\n0000000000 65535 f \n`;
-  for (const offset of offsets) text += `${String(offset).padStart(10, '0')} 00000 n \n`;
-  text += `trailer\n<< /Size ${objects.length + 1} /Root 1 0 R >>\nstartxref\n${xref}\n%%EOF\n`;
-  return Buffer.from(text, 'latin1');
+  return assemblePdf(['<< /Type /Catalog /Pages 2 0 R >>', '<< /Type /Pages /Kids [3 0 R] /Count 1 >>', '<< /Type /Page /Parent 2 0 R /MediaBox [0 0 595 842] >>']);
 }

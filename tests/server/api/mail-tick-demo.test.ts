@@ -5,6 +5,7 @@ import { Op } from 'sequelize';
 import { Enrollment, Milestone, OutboxMessage, Report, Trial, User } from '../../../db/models';
 import { DEMO_ACCOUNTS, DEMO_TRIAL_SLUG, seedDemoStudio } from '../../../db/seeders/demo-studio';
 import { reminderPlan } from '../../../server/jobs/schedule';
+import { runMailTick } from '../../../server/jobs/tick';
 import { startMailHarness, type MailHarness } from './mail-support';
 
 const run = promisify(execFile);
@@ -45,9 +46,14 @@ describe('the demo trial and the mail:tick command', () => {
     expect(new Set(owed.map((a) => zoneOf.get(a))).size).toBeGreaterThan(1);
     const plans = new Map(owed.map((a) => [a, reminderPlan(due, zoneOf.get(a)!)]));
     const instants = [...new Set([...plans.values()].flat().map((p) => p.sendAt.getTime() + 5 * 60_000))].sort((a, b) => a - b);
-    for (const at of instants) {
-      await tickAt(new Date(at));
-      await tickAt(new Date(at)); // run twice: nothing more goes out
+    // The command itself at the first instant (twice: nothing more goes out); the same tick
+    // in-process for the rest, which keeps the test quick when the testers' zones spread the plan.
+    const [firstAt, ...rest] = instants;
+    await tickAt(new Date(firstAt));
+    expect((await tickAt(new Date(firstAt))).reminders.queued).toBe(0);
+    for (const at of rest) {
+      await runMailTick({ config: h.t.config, mailer: h.t.mailer }, new Date(at));
+      await runMailTick({ config: h.t.config, mailer: h.t.mailer }, new Date(at));
     }
     const subject = { '3d': 'Due in 3 days', '1d': 'Due tomorrow', day: 'Due today', overdue: 'Overdue' } as const;
     for (const address of owed) {
