@@ -13,6 +13,11 @@ export class AppError extends Error {
 
 export const notFound = (what = 'resource') => new AppError(404, 'not_found', `No such ${what}.`);
 export const forbidden = (message = 'You may not do this.') => new AppError(403, 'forbidden', message);
+/**
+ * Refused by ownership: the thing exists but belongs to someone else (another tester's report,
+ * photo or enrolment; a trial the caller is not part of). Nothing of it is returned.
+ */
+export const notYours = (what: string) => new AppError(403, 'forbidden', `This ${what} is not yours to see or change.`);
 export const unauthenticated = (message = 'Sign in first.') => new AppError(401, 'unauthenticated', message);
 export const badRequest = (message: string, fields?: Record<string, string>) =>
   new AppError(400, 'invalid_input', message, fields);

@@ -4,7 +4,7 @@ import { Draft, DraftDownload, DraftFile, Enrollment, Membership, Pattern, Studi
 import type { Config } from '../config';
 import type { DraftFileKind } from '../domain/drafts';
 import { can } from '../domain/policy';
-import { badRequest, notFound } from '../errors';
+import { badRequest, notFound, notYours } from '../errors';
 import { checkDraftFile } from '../files/content-check';
 import type { Mailer } from '../mail/mailer';
 import { newDraftMail } from '../mail/templates';
@@ -117,8 +117,8 @@ export async function downloadLink(fileId: string, user: User, storage: Storage)
       where: { userId: user.id, status: 'active' },
       include: [{ model: Trial, as: 'trial', where: { patternId: pattern.id }, required: true }],
     })) > 0;
-  // Not found rather than forbidden: the file's existence is not told to outsiders.
-  if (!staff && !enrolled) throw notFound('file');
+  // Refused before any link is made or any download logged.
+  if (!staff && !enrolled) throw notYours('file');
   await DraftDownload.create({ draftFileId: file.id, userId: user.id });
   return { url: await storage.signedUrl('drafts', file.objectKey, file.originalName), expiresInSeconds: 300 };
 }
@@ -129,6 +129,6 @@ export async function draftsForTrial(trialId: string, user: User) {
   if (!trial) throw notFound('trial');
   const membership = await Membership.findOne({ where: { studioId: trial.studioId, userId: user.id } });
   const enrolled = await Enrollment.count({ where: { trialId, userId: user.id, status: 'active' } });
-  if (!enrolled && !can(membership?.role, 'patterns.read')) throw notFound('trial');
+  if (!enrolled && !can(membership?.role, 'patterns.read')) throw notYours('trial');
   return Draft.findAll({ where: { patternId: trial.patternId }, include: [{ model: DraftFile, as: 'files' }], order: [['version', 'DESC']] });
 }

@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { Enrollment, Membership, Photo, Trial, type User } from '../../db/models';
 import { can } from '../domain/policy';
-import { notFound } from '../errors';
+import { notFound, notYours } from '../errors';
 import { checkPhotoFile } from '../files/content-check';
 import { processPhoto } from '../files/photo-pipeline';
 import type { Storage } from '../storage/storage';
@@ -11,7 +11,7 @@ export type PhotoInput = { stage: Photo['stage']; view: Photo['view']; consent: 
 /** The caller's own active enrolment; someone else's is not found. */
 export async function ownEnrollment(enrollmentId: string, user: User) {
   const enrollment = await Enrollment.findOne({ where: { id: enrollmentId, userId: user.id } });
-  if (!enrollment) throw notFound('enrollment');
+  if (!enrollment) throw (await Enrollment.count({ where: { id: enrollmentId } })) ? notYours('enrolment') : notFound('enrollment');
   return enrollment;
 }
 
@@ -59,7 +59,7 @@ export async function deletePhoto(photoId: string, user: User, storage: Storage)
 /** The caller's own photo (through their enrolment); anyone else's is not found. */
 export async function ownPhoto(photoId: string, user: User) {
   const photo = await Photo.findOne({ where: { id: photoId }, include: [{ model: Enrollment, as: 'enrollment', where: { userId: user.id }, required: true }] });
-  if (!photo) throw notFound('photo');
+  if (!photo) throw (await Photo.count({ where: { id: photoId } })) ? notYours('photo') : notFound('photo');
   return photo;
 }
 
@@ -94,7 +94,7 @@ export async function photoLink(photoId: string, size: 'full' | 'thumb', user: U
   if (!photo || !enrollment?.trial) throw notFound('photo');
   const own = enrollment.userId === user.id;
   const membership = own ? null : await Membership.findOne({ where: { studioId: enrollment.trial.studioId, userId: user.id } });
-  if (!own && !can(membership?.role, 'trials.read')) throw notFound('photo');
+  if (!own && !can(membership?.role, 'trials.read')) throw notYours('photo');
   const key = size === 'thumb' ? photo.thumbKey : photo.fullKey;
   return { url: await storage.signedUrl('photos', key, `${photo.view}-${photo.id.slice(0, 8)}.jpg`), expiresInSeconds: 300 };
 }

@@ -3,7 +3,7 @@ import { Draft, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Rep
 import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { reportCompleteSchema, type ReportDraft, type reportDraftSchema } from '../domain/schemas/reports';
-import { badRequest, conflict, notFound } from '../errors';
+import { badRequest, conflict, notFound, notYours } from '../errors';
 import { refreshFindingsQuietly } from '../findings/findings.service';
 import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { formatDue } from '../trials/trial-mail';
@@ -16,7 +16,7 @@ async function ownEnrollment(enrollmentId: string, user: User) {
     where: { id: enrollmentId, userId: user.id },
     include: [{ model: Trial, as: 'trial', include: [{ model: Pattern, as: 'pattern' }] }],
   });
-  if (!enrollment) throw notFound('enrollment');
+  if (!enrollment) throw (await Enrollment.count({ where: { id: enrollmentId } })) ? notYours('enrolment') : notFound('enrollment');
   return enrollment as Enrollment & { trial: Trial & { pattern: Pattern } };
 }
 

@@ -112,11 +112,11 @@ describe('a tester’s check-in and final report with photos, on a phone, and th
     // The other tester of the same trial reaches none of it.
     const outsider = await h.newContext();
     expect((await outsider.request.post('/api/auth/sign-in', { data: { email: other.email, password: TEST_PASSWORD } })).status()).toBe(200);
-    expect((await outsider.request.get(`/api/me/enrollments/${mine.id}/reports/final`)).status()).toBe(404);
-    expect((await outsider.request.get(`/api/me/enrollments/${mine.id}/photos`)).status()).toBe(404);
+    expect((await outsider.request.get(`/api/me/enrollments/${mine.id}/reports/final`)).status()).toBe(403);
+    expect((await outsider.request.get(`/api/me/enrollments/${mine.id}/photos`)).status()).toBe(403);
     const photos = (await (await context.request.get(`/api/me/enrollments/${mine.id}/photos`)).json()) as { id: string }[];
     expect(photos).toHaveLength(4);
-    expect((await outsider.request.post(`/api/photos/${photos[0].id}/link`)).status()).toBe(404);
+    expect((await outsider.request.post(`/api/photos/${photos[0].id}/link`)).status()).toBe(403);
     expect((await outsider.request.get(`/api/studios/${studio.id}/trials/${trial.id}/photos`)).status()).toBe(403);
     expect(h.errors).toEqual([]);
   });

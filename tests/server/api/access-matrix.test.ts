@@ -34,7 +34,7 @@ type Ctx = StudioWorld & {
 type Row = {
   allow: readonly Persona[];
   call: (ctx: Ctx) => { path: string; body?: object };
-  /** Refused by ownership (not by role): every signed-in outsider gets 404, so nothing is revealed. */
+  /** Refused by ownership (not by role): every signed-in caller who is not allowed gets 403 and nothing of it. */
   hidden?: boolean;
 };
 
@@ -283,7 +283,7 @@ function userOf(world: StudioWorld, persona: Persona) {
 
 function expectedDenial(persona: Persona, hidden = false): number {
   if (persona === 'anonymous') return 401;
-  if (hidden) return 404;
+  if (hidden) return 403;
   return (MEMBERS_HERE as readonly string[]).includes(persona) ? 403 : 404;
 }
 

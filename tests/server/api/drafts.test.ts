@@ -84,13 +84,13 @@ describe('draft files', () => {
     expect(latestA4.downloadedBy.map((d: { name: string }) => d.name)).toEqual([w.users.tester.name]);
   });
 
-  it('a tester of another trial gets 404 for the trial’s drafts and for a link, and nothing is logged', async () => {
+  it('a tester of another trial gets 403 for the trial’s drafts and for a link, and nothing is logged', async () => {
     const outsider = await createUser('outsider');
     await addMember(w.studio, outsider, 'tester');
     const file = await DraftFile.findOne();
-    expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(outsider))).status).toBe(404);
-    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(outsider))).status).toBe(404);
-    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(w.users.otherTester))).status).toBe(404);
+    expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(outsider))).status).toBe(403);
+    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(outsider))).status).toBe(403);
+    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(w.users.otherTester))).status).toBe(403);
   });
 
   it('a text file named .pdf is refused naming the file, and nothing is stored', async () => {

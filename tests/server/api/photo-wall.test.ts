@@ -127,7 +127,7 @@ describe('the photo wall of a trial and a tester’s photo consent', () => {
     expect((await request(t.app).get(`/api/studios/${w.studio.id}/trials/not-a-uuid/photos`).set(as(w.users.grader))).status).toBe(404);
   });
 
-  it('lets the tester change the consent of their own photo; another tester gets 404 and nothing changes', async () => {
+  it('lets the tester change the consent of their own photo; anyone else gets 403 and nothing changes', async () => {
     const id = await upload(testers.small, enrolments.small, { stage: 'final', view: 'detail', consent: 'staff-only' });
     const changed = await request(t.app).patch(`/api/me/photos/${id}`).set(as(testers.small)).send({ consent: 'may-share' });
     expect(changed.status).toBe(200);
@@ -137,10 +137,12 @@ describe('the photo wall of a trial and a tester’s photo consent', () => {
     // A tester of another trial (same studio), and a tester of another studio.
     for (const intruder of [testers.medium, w.users.otherTester]) {
       const res = await request(t.app).patch(`/api/me/photos/${id}`).set(as(intruder)).send({ consent: 'staff-only' });
-      expect(res.status).toBe(404);
+      expect(res.status).toBe(403);
     }
     // Staff may look but not change a tester's permission.
-    expect((await request(t.app).patch(`/api/me/photos/${id}`).set(as(w.users.owner)).send({ consent: 'staff-only' })).status).toBe(404);
+    expect((await request(t.app).patch(`/api/me/photos/${id}`).set(as(w.users.owner)).send({ consent: 'staff-only' })).status).toBe(403);
+    // A photo that does not exist is simply not found.
+    expect((await request(t.app).patch('/api/me/photos/00000000-0000-4000-8000-000000000000').set(as(w.users.owner)).send({ consent: 'staff-only' })).status).toBe(404);
     expect((await Photo.findByPk(id))!.consent).toBe('may-share');
   });
 

@@ -52,12 +52,12 @@ describe('photos of a tester’s toile and garment', () => {
     expect((await request(t.app).post(`/api/photos/${res.body.id}/link`).set(as(w.users.tester))).status).toBe(200);
   });
 
-  it('a tester of another studio, or another tester, gets 404 for the link; another tester cannot upload to this enrolment', async () => {
+  it('a tester of another studio, or another tester, gets 403 for the link; another tester cannot upload to this enrolment', async () => {
     const res = await post().attach('photo', await jpegWithGpsAndOrientation(), 'side.jpg');
-    expect((await request(t.app).post(`/api/photos/${res.body.id}/link`).set(as(w.users.otherOwner))).status).toBe(404);
-    expect((await request(t.app).post(`/api/photos/${res.body.id}/link`).set(as(w.users.otherTester))).status).toBe(404);
+    expect((await request(t.app).post(`/api/photos/${res.body.id}/link`).set(as(w.users.otherOwner))).status).toBe(403);
+    expect((await request(t.app).post(`/api/photos/${res.body.id}/link`).set(as(w.users.otherTester))).status).toBe(403);
     const intruder = await post(w.users.otherTester, enrollmentId).attach('photo', await jpegWithGpsAndOrientation(), 'x.jpg');
-    expect(intruder.status).toBe(404);
+    expect(intruder.status).toBe(403);
     expect(otherEnrollmentId).not.toBe(enrollmentId);
   });
 

@@ -89,7 +89,7 @@ describe('check-in and final reports', () => {
       .set(as(w.users.owner))
       .send({ sizeSewn: 'M', draftVersion: 2, fit: { rise: -2 }, alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 19.05, where: 'back' }], verdict: 'Back rise too short.' })
       .expect(200);
-    expect((await request(t.app).get(`/api/me/enrollments/${e.id}/reports/final`).set(as(w.users.tester))).status).toBe(404);
+    expect((await request(t.app).get(`/api/me/enrollments/${e.id}/reports/final`).set(as(w.users.tester))).status).toBe(403);
 
     const base = `/api/studios/${w.studio.id}/trials/${trial.id}`;
     const finals = await request(t.app).get(`${base}/reports?stage=final&draft=2`).set(as(w.users.grader));
