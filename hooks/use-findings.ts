@@ -63,13 +63,15 @@ export function useFindingActions(studioId: string, trialId: string) {
   const { mutate } = useSWRConfig();
   return useMemo(() => {
     const base = findingsKeys.base(studioId, trialId);
-    const apply = (who: { kind: string; direction: Direction }, update: FindingUpdate) =>
+    // Each action takes from the answer only the part it changed: a triage saved and a note added
+    // at nearly the same time must not undo each other in the view whatever order the answers come.
+    const apply = (who: { kind: string; direction: Direction }, update: Partial<FindingUpdate>) =>
       mutate<FindingsResponse>(
         (key) => typeof key === 'string' && (key === base || key.startsWith(`${base}?`)),
         (data) => {
           if (!data?.result) return data;
           const findings = data.result.findings.map((f) =>
-            f.kind === who.kind && f.direction === who.direction ? { ...f, triage: update.triage, notes: update.notes } : f,
+            f.kind === who.kind && f.direction === who.direction ? { ...f, ...update } : f,
           );
           return { ...data, result: { ...data.result, findings } };
         },
@@ -78,12 +80,12 @@ export function useFindingActions(studioId: string, trialId: string) {
     return {
       async setTriage(body: TriageBody) {
         const update = await api<FindingUpdate>(findingsKeys.triage(studioId, trialId), { method: 'PUT', body });
-        await apply(body, update);
+        await apply(body, { triage: update.triage });
         return update;
       },
       async addNote(body: NoteBody) {
         const update = await api<FindingUpdate>(findingsKeys.notes(studioId, trialId), { method: 'POST', body });
-        await apply(body, update);
+        await apply(body, { notes: update.notes });
         return update;
       },
     };

@@ -45,6 +45,7 @@ describe('the findings screen and the trial’s mail, in Chromium', () => {
     await row.click();
     await page.getByRole('radiogroup', { name: 'Triage of Back crotch length, added' }).getByRole('radio', { name: 'Will fix' }).click();
     await page.getByRole('button', { name: 'Save the triage' }).click();
+    await page.getByText(/^Triage: Will fix · /).waitFor();
     await page.getByLabel('Note on Back crotch length, added').fill('Add 3/4 in at the back crotch point in draft 2.');
     await page.getByRole('button', { name: 'Add the note' }).click();
     // The note appears in the list (a div, not the cleared text box).
