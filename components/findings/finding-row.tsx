@@ -7,7 +7,7 @@ import { formatLength } from '@/server/domain/units';
 import { AmountChart } from './amount-chart';
 import { RateChart } from './rate-chart';
 import { TriagePanel, triageText } from './triage-panel';
-import { CLASS_HINTS, CLASS_LABELS, findingName, intervalText, isPatternProblem, percent } from './words';
+import { CLASS_HINTS, CLASS_LABELS, findingName, intervalText, isPatternProblem, percent, reasonInUnit } from './words';
 
 type Props = {
   studioId: string;
@@ -49,14 +49,14 @@ export function FindingRow({ studioId, trialId, finding: f, drafts, unit, canTri
       </Pressable>
       {!open && f.reasons[0] ? (
         <AppText variant="caption" numberOfLines={2} style={styles.firstReason}>
-          {f.reasons[0]}
+          {reasonInUnit(f.reasons[0], unit)}
         </AppText>
       ) : null}
       {open ? (
         <View style={styles.detail}>
           <AppText variant="caption">{CLASS_HINTS[f.class]}</AppText>
           {f.reasons.map((r) => (
-            <AppText key={r}>{`• ${r}`}</AppText>
+            <AppText key={r}>{`• ${reasonInUnit(r, unit)}`}</AppText>
           ))}
           {f.meanMm !== null ? (
             <AppText variant="caption">

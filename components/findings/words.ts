@@ -1,6 +1,7 @@
 // The words the findings screens use for the engine's codes: our own plain names.
 import type { ComparisonStatus, Direction, FindingClass } from '@/server/analysis/types';
 import { ALTERATION_KINDS } from '@/server/domain/alterations';
+import { formatLength, type LengthUnit } from '@/server/domain/units';
 import type { TriageState } from '@/hooks/use-findings';
 
 export const CLASS_LABELS: Record<FindingClass, string> = {
@@ -81,4 +82,12 @@ export function pText(p: number | null): string {
 
 export function testersText(n: number): string {
   return n === 1 ? '1 tester' : `${n} testers`;
+}
+
+/**
+ * The engine words its reasons in millimetres (server/analysis/wording.ts, "−42.5 mm"); a reader
+ * who works in inches or centimetres reads the amounts of a finding's reasons in their own unit.
+ */
+export function reasonInUnit(reason: string, unit: LengthUnit): string {
+  return reason.replace(/(−|-)?(\d+(?:\.\d+)?) mm\b/g, (_all, sign: string | undefined, digits: string) => formatLength((sign ? -1 : 1) * Number(digits), unit));
 }
