@@ -130,7 +130,7 @@ SELECT 'CREATE ROLE "$DB_USER" LOGIN CREATEDB' WHERE NOT EXISTS (SELECT FROM pg_
 ALTER ROLE "$DB_USER" PASSWORD '$DB_PASSWORD';
 -- Dropping a scratch database WITH (FORCE) may have to stop an autovacuum worker busy in it,
 -- which runs as the bootstrap superuser: the app role needs this built-in role for that.
-GRANT pg_signal_backend TO "$DB_USER";
+SELECT 'GRANT pg_signal_backend TO "$DB_USER"' WHERE NOT pg_has_role('$DB_USER', 'pg_signal_backend', 'MEMBER')\gexec
 SELECT 'CREATE DATABASE "$DB_NAME" OWNER "$DB_USER"' WHERE NOT EXISTS (SELECT FROM pg_database WHERE datname = '$DB_NAME')\gexec
 SQL
 }
