@@ -1,7 +1,8 @@
-import Svg, { Circle, G, Line, Text as SvgText } from 'react-native-svg';
+import Svg, { Circle, Line, Text as SvgText } from 'react-native-svg';
 import type { Finding, SizeStats } from '@/server/analysis/types';
 import { colors, fonts } from '@/constants/theme';
 import { formatLength, type LengthUnit } from '@/server/domain/units';
+import { sizeLabelStep, XTitle, YGrid } from './axes';
 import { ChartFrame } from './chart-frame';
 import { amountGeometry, type AmountGeometry } from './chart-geometry';
 import { pText } from './words';
@@ -38,18 +39,10 @@ export function AmountChart({ bySize, fit, unit, name, initialWidth }: Props) {
 }
 
 export function AmountDrawing({ g }: { g: AmountGeometry }) {
-  const labelEvery = g.bandWidth >= 26 ? 1 : Math.ceil(26 / g.bandWidth);
-  
+  const labelEvery = sizeLabelStep(g.bandWidth);
   return (
     <Svg width={g.width} height={g.height} aria-hidden>
-      {g.ticks.map((t) => (
-        <G key={t.value}>
-          <Line x1={g.plot.left} x2={g.plot.right} y1={t.y} y2={t.y} stroke={colors.line} strokeWidth={1} />
-          <SvgText x={g.plot.left - 6} y={t.y + 4} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted} textAnchor="end">
-            {t.label}
-          </SvgText>
-        </G>
-      ))}
+      <YGrid ticks={g.ticks} plot={g.plot} />
       <Line x1={g.plot.left} x2={g.plot.right} y1={g.zeroY} y2={g.zeroY} stroke={colors.inkMuted} strokeWidth={1} />
       {g.line ? <Line testID="amount-line" x1={g.line.x1} y1={g.line.y1} x2={g.line.x2} y2={g.line.y2} stroke={colors.warning} strokeWidth={2} strokeDasharray="7 4" /> : null}
       {g.points.map((p) => (
@@ -62,9 +55,7 @@ export function AmountDrawing({ g }: { g: AmountGeometry }) {
             {g.sizeLabels[i] ?? ''}
           </SvgText>
         ))}
-      <SvgText x={g.plot.left + g.plot.width / 2} y={g.height - 4} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted} textAnchor="middle">
-        {`Size (amount in ${g.unit})`}
-      </SvgText>
+      <XTitle plot={g.plot} height={g.height}>{`Size (amount in ${g.unit})`}</XTitle>
     </Svg>
   );
 }

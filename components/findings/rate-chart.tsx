@@ -1,6 +1,7 @@
 import Svg, { Circle, G, Line, Path, Rect, Text as SvgText } from 'react-native-svg';
 import type { SizeStats } from '@/server/analysis/types';
 import { colors, fonts } from '@/constants/theme';
+import { sizeLabelStep, XTitle, YGrid } from './axes';
 import { ChartFrame } from './chart-frame';
 import { rateGeometry, type RateGeometry } from './chart-geometry';
 import { intervalText, percent } from './words';
@@ -41,17 +42,10 @@ export function RateChart({ bySize, flaggedSizes = [], overall, name, initialWid
 const CAP = 5;
 
 export function RateDrawing({ g }: { g: RateGeometry }) {
-  const labelEvery = g.bandWidth >= 26 ? 1 : Math.ceil(26 / g.bandWidth);
+  const labelEvery = sizeLabelStep(g.bandWidth);
   return (
     <Svg width={g.width} height={g.height} aria-hidden>
-      {g.ticks.map((t) => (
-        <G key={t.value}>
-          <Line x1={g.plot.left} x2={g.plot.right} y1={t.y} y2={t.y} stroke={colors.line} strokeWidth={1} />
-          <SvgText x={g.plot.left - 6} y={t.y + 4} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted} textAnchor="end">
-            {t.label}
-          </SvgText>
-        </G>
-      ))}
+      <YGrid ticks={g.ticks} plot={g.plot} />
       {g.overall ? (
         <G testID="rate-overall">
           <Rect x={g.plot.left} width={g.plot.width} y={g.overall.yHigh} height={Math.max(0, g.overall.yLow - g.overall.yHigh)} fill={colors.threadSoft} opacity={0.5} />
@@ -85,9 +79,7 @@ export function RateDrawing({ g }: { g: RateGeometry }) {
         );
       })}
       <Line x1={g.plot.left} x2={g.plot.right} y1={g.plot.bottom} y2={g.plot.bottom} stroke={colors.inkMuted} strokeWidth={1} />
-      <SvgText x={g.plot.left + g.plot.width / 2} y={g.height - 4} fontSize={11} fontFamily={fonts.regular} fill={colors.inkMuted} textAnchor="middle">
-        Size
-      </SvgText>
+      <XTitle plot={g.plot} height={g.height}>Size</XTitle>
     </Svg>
   );
 }
