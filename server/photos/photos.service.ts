@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { Op } from 'sequelize';
 import { Enrollment, Membership, Photo, Trial, type User } from '../../db/models';
 import { can } from '../domain/policy';
 import { notFound, notYours } from '../errors';
@@ -27,12 +28,13 @@ export async function addPhoto(enrollmentId: string, user: User, input: PhotoInp
   const id = randomUUID();
   const keys = { full: `photos/${id}.jpg`, thumb: `photos/${id}-thumb.jpg` };
   const stored: string[] = [];
+  let photo: Photo;
   try {
     await storage.put('photos', keys.full, full.buffer, full.mime);
     stored.push(keys.full);
     await storage.put('photos', keys.thumb, thumb.buffer, thumb.mime);
     stored.push(keys.thumb);
-    return await Photo.create({
+    photo = await Photo.create({
       id,
       enrollmentId: enrollment.id,
       ...input,
@@ -44,6 +46,21 @@ export async function addPhoto(enrollmentId: string, user: User, input: PhotoInp
   } catch (error) {
     await Promise.allSettled(stored.map((key) => storage.remove('photos', key)));
     throw error;
+  }
+  await replaceEarlier(photo, storage);
+  return photo;
+}
+
+/**
+ * A report has one front, one side and one back photo: a new one replaces the earlier (its row
+ * and stored objects go once the new one is safely stored). Details may be many.
+ */
+async function replaceEarlier(photo: Photo, storage: Storage) {
+  if (photo.view === 'detail') return;
+  const earlier = await Photo.findAll({ where: { enrollmentId: photo.enrollmentId, stage: photo.stage, view: photo.view, id: { [Op.ne]: photo.id } } });
+  for (const old of earlier) {
+    await old.destroy();
+    await Promise.allSettled([storage.remove('photos', old.fullKey), storage.remove('photos', old.thumbKey)]);
   }
 }
 

@@ -92,6 +92,25 @@ describe('photos of a tester’s toile and garment', () => {
     expect(await Photo.findByPk(photo.id)).toBeNull();
   });
 
+  it('a new front, side or back photo of a report replaces the earlier one, objects included; details add up', async () => {
+    const upload = (view: string, stage = 'check-in') =>
+      request(t.app).post(`/api/me/enrollments/${enrollmentId}/photos`).set(as(w.users.tester)).field('stage', stage).field('view', view).field('consent', 'staff-only').attach('photo', jpeg, `${view}.jpg`);
+    const jpeg = await jpegWithGpsAndOrientation();
+    const first = (await upload('back')).body.id as string;
+    const old = (await Photo.findByPk(first))!;
+    const second = await upload('back');
+    expect(second.status).toBe(201);
+    const backs = await Photo.findAll({ where: { enrollmentId, stage: 'check-in', view: 'back' } });
+    expect(backs.map((p) => p.id)).toEqual([second.body.id]);
+    await expect(t.storage.client.send(new GetObjectCommand({ Bucket: t.config.s3.buckets.photos, Key: old.fullKey }))).rejects.toThrow();
+    // The final report's back photo is another photo.
+    expect((await upload('back', 'final')).status).toBe(201);
+    expect(await Photo.count({ where: { enrollmentId, view: 'back' } })).toBe(2);
+    await upload('detail');
+    await upload('detail');
+    expect(await Photo.count({ where: { enrollmentId, stage: 'check-in', view: 'detail' } })).toBe(2);
+  });
+
   it('a tester who withdraws has their photos deleted, rows and stored objects', async () => {
     const made = await post().attach('photo', await jpegWithGpsAndOrientation(), 'leaving.jpg');
     expect(made.status).toBe(201);
