@@ -27,7 +27,7 @@ export function ComparisonSection({ drafts, compare, rows, onCompare, busy }: Pr
   if (drafts.length < 2) {
     return (
       <Card title="Draft against draft">
-        <Empty>Only one draft has final reports so far: nothing to compare yet.</Empty>
+        <Empty>Only one draft has reports so far: nothing to compare yet.</Empty>
       </Card>
     );
   }

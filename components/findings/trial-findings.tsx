@@ -30,6 +30,9 @@ type Props = {
   role: Role;
   lengthUnit: LengthUnit;
   fabricUnit: FabricUnit;
+  /** The draft to open with (from the page address), and who to tell when another is chosen. */
+  initialDraft?: string;
+  onDraftChange?: (draft: string) => void;
 };
 
 /** Sizes of the range in grading order, as the engine lists them for every finding. */
@@ -38,10 +41,10 @@ function sizesOf(result: FindingsResult): string[] {
 }
 
 /** A trial's findings: filters, the list with charts and triage, the heat grid, the draft comparison and the other checks. */
-export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit }: Props) {
+export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit, initialDraft, onDraftChange }: Props) {
   const wide = useIsWide();
   const { data: trial } = useTrial(studioId, trialId);
-  const [draft, setDraft] = useState<string | undefined>();
+  const [draft, setDraft] = useState<string | undefined>(initialDraft);
   const [compare, setCompare] = useState<[string, string] | undefined>();
   // Classes the person chose to hide; a class that appears later is shown until hidden.
   const [hidden, setHidden] = useState<FindingClass[]>([]);
@@ -63,7 +66,7 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit 
     return (
       <Screen title={title}>
         {back}
-        <Loading label="Adding up the final reports…" />
+        <Loading label="Adding up the reports…" />
       </Screen>
     );
   }
@@ -73,7 +76,7 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit 
       <Screen title={title}>
         {back}
         <Card title="Findings">
-          <Empty>No submitted final reports yet. Findings appear here once testers send their final reports.</Empty>
+          <Empty>No submitted reports yet. Findings appear here once testers send their check-ins or final reports.</Empty>
         </Card>
       </Screen>
     );
@@ -86,7 +89,7 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit 
   const snapshot = data.snapshot ? ` Worked out ${dayjs(data.snapshot.computedAt).format('D MMM YYYY, HH:mm')}.` : '';
 
   return (
-    <Screen title={title} intro={`Draft ${result.draft}: ${result.testers} final ${result.testers === 1 ? 'report' : 'reports'} (${data.input.testers} over all drafts).${snapshot}`}>
+    <Screen title={title} intro={`Draft ${result.draft}: ${result.testers} ${result.testers === 1 ? 'tester' : 'testers'} reported (their final report, or their check-in where that is all they sent on this draft; ${data.input.testers} reports over all drafts).${snapshot}`}>
       {back}
       {error ? <Notice tone="error">{error.message}</Notice> : null}
       <Card title="What to show">
@@ -95,10 +98,13 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit 
             label="Draft"
             options={result.drafts.map((d) => ({ value: d, label: `Draft ${d}` }))}
             value={draft ?? result.draft}
-            onChange={(d) => setDraft(d)}
+            onChange={(d) => {
+              setDraft(d);
+              onDraftChange?.(d);
+            }}
           />
         ) : (
-          <AppText variant="caption">{`Only draft ${result.draft} has final reports.`}</AppText>
+          <AppText variant="caption">{`Only draft ${result.draft} has reports.`}</AppText>
         )}
         {present.length ? (
           <ToggleChips

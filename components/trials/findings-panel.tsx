@@ -18,15 +18,15 @@ const CLASS_WORDS: Record<FindingClass, string> = {
   none: 'no pattern',
 };
 
-/** What the submitted final reports add up to, with the reasons in words. */
+/** What the submitted reports add up to (each tester once per draft), with the reasons in words. */
 export function FindingsPanel({ studioId, trialId }: { studioId: string; trialId: string }) {
   const { data, error, mutate } = useSWR<FindingsResponse>(`${trialKeys.one(studioId, trialId)}/findings`);
   return (
     <Card title="Findings">
       {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
       {!data && !error ? <Loading /> : null}
-      {data && !data.result ? <Empty>No final report is submitted yet.</Empty> : null}
-      {data?.result ? <AppText variant="caption">{`Draft ${data.result.draft}: ${data.result.testers} final reports.`}</AppText> : null}
+      {data && !data.result ? <Empty>No report is submitted yet.</Empty> : null}
+      {data?.result ? <AppText variant="caption">{`Draft ${data.result.draft}: ${data.result.testers} ${data.result.testers === 1 ? 'tester' : 'testers'} reported.`}</AppText> : null}
       {data?.result?.findings.map((f) => (
         <View key={`${f.kind}-${f.direction}`} style={[styles.row, (f.class === 'draft-wide' || f.class === 'grading' || f.class === 'size-specific') && styles.flagged]}>
           <AppText style={styles.strong}>{`${f.kind} (${f.direction}): ${CLASS_WORDS[f.class]}${f.sizes.length ? `, sizes ${f.sizes.join(', ')}` : ''} · ${f.count} of ${f.testers}`}</AppText>

@@ -208,6 +208,17 @@ describe('the findings screen of a trial', () => {
     expect(within(list).getByText(/no test/)).toBeTruthy();
   });
 
+  it('keeps the chosen draft in the address, and opens the draft the address names', async () => {
+    const calls = serve();
+    renderRouter(routes, { initialUrl: '/findings/t1?draft=1' });
+    expect(await screen.findByText('Findings of draft 1')).toBeTruthy();
+    expect(calls.some((c) => c.url === `${BASE}?draft=1`)).toBe(true);
+    expect(calls.some((c) => c.url === BASE)).toBe(false);
+    fireEvent.press(within(screen.getByLabelText('Draft')).getByRole('radio', { name: 'Draft 2' }));
+    await screen.findByText('Findings of draft 2');
+    await waitFor(() => expect(screen).toHaveSearchParams({ trialId: 't1', draft: '2' }));
+  });
+
   it('sends the triage change with the finding’s kind and direction, and shows the saved state', async () => {
     const calls = serve({ role: 'grader' });
     renderRouter(routes, { initialUrl: '/findings/t1' });
@@ -268,10 +279,10 @@ describe('the findings screen of a trial', () => {
     expect(screen.queryByText('Unclear instruction steps')).toBeNull();
   });
 
-  it('says so when no final report is submitted yet', async () => {
+  it('says so when no report is submitted yet', async () => {
     serve({ result: 'none' });
     renderRouter(routes, { initialUrl: '/findings/t1' });
-    expect(await screen.findByText(/No submitted final reports yet/)).toBeTruthy();
+    expect(await screen.findByText(/No submitted reports yet/)).toBeTruthy();
   });
 
   it('says so when the trial is not in this studio', async () => {

@@ -19,7 +19,7 @@ export default function FindingsScreen() {
       <Card title="Choose a trial">
         {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
         {!data && !error ? <Loading /> : null}
-        {data && data.length === 0 ? <Empty>No trials yet: findings appear once a trial has final reports.</Empty> : null}
+        {data && data.length === 0 ? <Empty>No trials yet: findings appear once a trial has reports.</Empty> : null}
         <View style={styles.list}>
           {data?.map((t) => (
             <Link key={t.id} href={{ pathname: '/findings/[trialId]', params: { trialId: t.id } }} asChild>
