@@ -210,13 +210,13 @@ describe('the findings screen of a trial', () => {
 
   it('keeps the chosen draft in the address, and opens the draft the address names', async () => {
     const calls = serve();
-    renderRouter(routes, { initialUrl: '/findings/t1?draft=1' });
+    const view = renderRouter(routes, { initialUrl: '/findings/t1?draft=1' });
     expect(await screen.findByText('Findings of draft 1')).toBeTruthy();
     expect(calls.some((c) => c.url === `${BASE}?draft=1`)).toBe(true);
     expect(calls.some((c) => c.url === BASE)).toBe(false);
     fireEvent.press(within(screen.getByLabelText('Draft')).getByRole('radio', { name: 'Draft 2' }));
     await screen.findByText('Findings of draft 2');
-    await waitFor(() => expect(screen).toHaveSearchParams({ trialId: 't1', draft: '2' }));
+    await waitFor(() => expect(view.getSearchParams()).toEqual({ trialId: 't1', draft: '2' }));
   });
 
   it('sends the triage change with the finding’s kind and direction, and shows the saved state', async () => {

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import request from 'supertest';
-import { Application, Enrollment, Trial } from '../../db/models';
-import { addMember, bearer, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
+import { Trial } from '../../db/models';
+import { addMember, bearer, createStudio, createUser, TEST_PASSWORD, enrolTester } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { waitForMessage } from '../support/inbox';
 import { tinyPdf } from '../support/sample-files';
@@ -33,8 +33,7 @@ describe('draft files in Chromium', () => {
       .expect(200);
     const sizeId = chart.body.chart.sizes[0].id;
     const trial = await Trial.create({ studioId: studio.id, patternId: pattern.body.id, slug: `camp-${Date.now()}`, title: 'Camp shirt round one', state: 'running', coverage: { sizes: [{ sizeId, target: 1 }], heightBands: [], variants: [] } });
-    const app = await Application.create({ trialId: trial.id, userId: tester.id, sizeId, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Rayon', experience: 'advanced', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: tester.id, sizeId, variantId: null });
+    await enrolTester(trial.id, tester.id, sizeId, { plannedFabric: 'Rayon', experience: 'advanced' });
 
     const staff = await h.newContext();
     expect((await staff.request.post('/api/auth/sign-in', { data: { email: coordinator.email, password: TEST_PASSWORD } })).status()).toBe(200);

@@ -1,6 +1,6 @@
 import path from 'node:path';
-import { Application, Enrollment, Milestone, OutboxMessage, Pattern, PatternSize, Report, Trial, type User } from '../../db/models';
-import { addMember, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
+import { Milestone, OutboxMessage, Pattern, PatternSize, Report, Trial, type User } from '../../db/models';
+import { addMember, createStudio, createUser, TEST_PASSWORD, enrolTester } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { waitForMessage } from '../support/inbox';
 
@@ -31,8 +31,7 @@ describe('the findings screen and the trial’s mail, in Chromium', () => {
       first ??= user;
       await addMember(studio, user, 'tester');
       const size = sizes[i % 3];
-      const app = await Application.create({ trialId: trial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Drill', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-      const e = await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null });
+      const { enrollment: e } = await enrolTester(trial.id, user.id, size.id, { plannedFabric: 'Drill' });
       const alterations = i < 8 ? [{ area: 'rise' as const, kind: 'back-rise', amountMm: 0.75 * IN, where: 'back' as const, note: '', otherText: '' }] : [];
       await Report.create({ enrollmentId: e.id, stage: 'final', submittedAt: new Date(), content: { sizeSewn: size.label, draftVersion: 1, fit: { rise: -1 }, alterations, verdict: 'Short in the back rise.' } });
     }

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { Application, Draft, Enrollment, Milestone, Pattern, PatternSize, Trial, type User } from '../../db/models';
-import { addMember, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
+import { Draft, Milestone, Pattern, PatternSize, Trial, type User } from '../../db/models';
+import { addMember, createStudio, createUser, TEST_PASSWORD, enrolTester } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { jpegWithGpsAndOrientation } from '../support/sample-files';
 
@@ -34,8 +34,7 @@ describe('a tester’s check-in and final report with photos, on a phone, and th
     await Milestone.create({ trialId: trial.id, kind: 'final-report', dueAt: new Date(Date.now() + 10 * DAY) });
     const enrol = async (user: User, size: PatternSize) => {
       await addMember(studio, user, 'tester');
-      const app = await Application.create({ trialId: trial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Canvas', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-      return Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null });
+      return (await enrolTester(trial.id, user.id, size.id, { plannedFabric: 'Canvas' })).enrollment;
     };
     const tester = await createUser('photo-tester');
     const other = await createUser('photo-other');

@@ -1,6 +1,6 @@
 import path from 'node:path';
-import { Application, Enrollment, Milestone, Pattern, PatternSize, Trial } from '../../db/models';
-import { addMember, createStudio, createUser, TEST_PASSWORD } from '../support/factories';
+import { Milestone, Pattern, PatternSize, Trial } from '../../db/models';
+import { addMember, createStudio, createUser, TEST_PASSWORD, enrolTester } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 
 const PHONE = { width: 390, height: 844 };
@@ -20,8 +20,7 @@ describe('a tester’s report in Chromium', () => {
     const size = await PatternSize.create({ patternId: pattern.id, label: '12', position: 0, bodyMm: { hip: 1003 } });
     const trial = await Trial.create({ studioId: studio.id, patternId: pattern.id, slug: `paperbag-${Date.now()}`, title: 'Paperbag trousers', state: 'running', coverage: { sizes: [{ sizeId: size.id, target: 2 }], heightBands: [], variants: [] } });
     await Milestone.create({ trialId: trial.id, kind: 'final-report', dueAt: new Date(Date.now() + 7 * 86_400_000) });
-    const app = await Application.create({ trialId: trial.id, userId: tester.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Tencel', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: tester.id, sizeId: size.id, variantId: null });
+    const { enrollment } = await enrolTester(trial.id, tester.id, size.id, { plannedFabric: 'Tencel' });
 
     const context = await h.newContext();
     expect((await context.request.post('/api/auth/sign-in', { data: { email: tester.email, password: TEST_PASSWORD } })).status()).toBe(200);

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import { Membership, Studio, User } from '../../db/models';
+import { Application, Enrollment, Membership, Studio, User } from '../../db/models';
 import { issueSessionToken } from '../../server/auth/session-token';
 import type { Config } from '../../server/config';
 import type { Role } from '../../server/domain/roles';
@@ -52,3 +52,30 @@ export async function createStudioWorld() {
   return { studio, otherStudio, users: { owner, coordinator, grader, tester, otherOwner, otherTester }, memberships };
 }
 export type StudioWorld = Awaited<ReturnType<typeof createStudioWorld>>;
+
+/**
+ * A tester chosen for a trial: their application (status selected) and the enrolment that follows.
+ * The profile snapshot carries the measurements the findings compare with the chart.
+ */
+export async function enrolTester(
+  trialId: string,
+  userId: string,
+  sizeId: string,
+  extra: { profileSnapshot?: Record<string, unknown>; plannedFabric?: string; experience?: 'beginner' | 'confident' | 'advanced' } = {},
+) {
+  const application = await Application.create({
+    trialId,
+    userId,
+    sizeId,
+    variantId: null,
+    profileSnapshot: extra.profileSnapshot ?? {},
+    adviceSnapshot: null,
+    plannedFabric: extra.plannedFabric ?? 'Linen',
+    experience: extra.experience ?? 'confident',
+    photoConsent: 'staff-only',
+    appliedAt: new Date(),
+    status: 'selected',
+  });
+  const enrollment = await Enrollment.create({ trialId, applicationId: application.id, userId, sizeId, variantId: null });
+  return { application, enrollment };
+}

@@ -1,7 +1,7 @@
 import request from 'supertest';
-import { Application, Draft, DraftFile, Enrollment, Invitation, OutboxMessage, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
+import { Application, Draft, DraftFile, Invitation, OutboxMessage, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
 import { newSecretToken } from '../../../server/auth/secret-token';
-import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld } from '../../support/factories';
+import { bearer, createStudioWorld, createUser, TEST_PASSWORD, uniqueEmail, type StudioWorld, enrolTester } from '../../support/factories';
 import { registeredRoutes } from '../../support/routes';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
@@ -325,20 +325,7 @@ describe('access matrix', () => {
         coverage: { sizes: [{ sizeId: size.id, target: 3 }], heightBands: [], variants: [] },
       });
       // Someone else's enrolment, and for a signed-in caller an application of their own in a second open trial.
-      const otherApp = await Application.create({
-        trialId: trial.id,
-        userId: world.users.otherTester.id === user?.id ? world.users.tester.id : world.users.otherTester.id,
-        sizeId: size.id,
-        variantId: null,
-        profileSnapshot: {},
-        adviceSnapshot: null,
-        plannedFabric: 'Linen',
-        experience: 'confident',
-        photoConsent: 'staff-only',
-        appliedAt: new Date(),
-        status: 'selected',
-      });
-      const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: otherApp.id, userId: otherApp.userId, sizeId: size.id, variantId: null });
+      const { application: otherApp, enrollment } = await enrolTester(trial.id, world.users.otherTester.id === user?.id ? world.users.tester.id : world.users.otherTester.id, size.id);
       const draft = await Draft.create({ patternId: pattern.id, version: 1, changeNote: 'First', createdById: null });
       const draftFile = await DraftFile.create({ draftId: draft.id, kind: 'print-a4', originalName: 'a4.pdf', objectKey: `drafts/${draft.id}.pdf`, bytes: 10 });
       const photo = await Photo.create({ enrollmentId: enrollment.id, stage: 'final', view: 'front', consent: 'staff-only', fullKey: `photos/${draft.id}.jpg`, thumbKey: `photos/${draft.id}-t.jpg`, width: 10, height: 10 });

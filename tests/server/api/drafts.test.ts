@@ -1,6 +1,6 @@
 import request from 'supertest';
-import { Application, Draft, DraftFile, Enrollment, Trial } from '../../../db/models';
-import { addMember, bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
+import { Draft, DraftFile, Trial } from '../../../db/models';
+import { addMember, bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { waitForMessage } from '../../support/inbox';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 import { tinyPdf } from '../../support/sample-files';
@@ -33,20 +33,7 @@ describe('draft files', () => {
       coverage: { sizes: [{ sizeId: chart.body.chart.sizes[0].id, target: 2 }], heightBands: [], variants: [] },
     });
     trialId = trial.id;
-    const app = await Application.create({
-      trialId,
-      userId: w.users.tester.id,
-      sizeId: chart.body.chart.sizes[0].id,
-      variantId: null,
-      profileSnapshot: {},
-      adviceSnapshot: null,
-      plannedFabric: 'Cotton drill',
-      experience: 'confident',
-      photoConsent: 'staff-only',
-      appliedAt: new Date(),
-      status: 'selected',
-    });
-    await Enrollment.create({ trialId, applicationId: app.id, userId: w.users.tester.id, sizeId: chart.body.chart.sizes[0].id, variantId: null });
+    await enrolTester(trialId, w.users.tester.id, chart.body.chart.sizes[0].id, { plannedFabric: 'Cotton drill' });
   });
   afterAll(() => t.close());
 

@@ -1,7 +1,7 @@
 import request from 'supertest';
-import { Application, Enrollment, FindingSnapshot, Pattern, PatternSize, Report, Trial, type User } from '../../../db/models';
+import { FindingSnapshot, Pattern, PatternSize, Report, Trial, type User } from '../../../db/models';
 import { reportsPerDraft } from '../../../server/findings/findings.service';
-import { bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
+import { bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 const IN = 25.4;
@@ -19,8 +19,8 @@ describe('stored findings, triage, notes, thresholds and "other" alterations', (
 
   async function enrol(i: number, size: PatternSize) {
     const user = await createUser(`triage-${i}`);
-    const app = await Application.create({ trialId: trial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: { measurementsMm: { hip: size.bodyMm.hip, inseam: 30 * IN } }, adviceSnapshot: null, plannedFabric: 'Twill', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    return { user, enrollment: await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null }) };
+    const { enrollment } = await enrolTester(trial.id, user.id, size.id, { profileSnapshot: { measurementsMm: { hip: size.bodyMm.hip, inseam: 30 * IN } }, plannedFabric: 'Twill' });
+    return { user, enrollment };
   }
 
   beforeAll(async () => {

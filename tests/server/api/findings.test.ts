@@ -1,6 +1,6 @@
 import request from 'supertest';
-import { Application, Enrollment, Pattern, PatternSize, Report, Trial } from '../../../db/models';
-import { bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
+import { Pattern, PatternSize, Report, Trial } from '../../../db/models';
+import { bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 const IN = 25.4;
@@ -23,8 +23,7 @@ describe('findings from the stored final reports', () => {
     for (let i = 0; i < 12; i += 1) {
       const size = sizes[i % 3];
       const user = await createUser(`finder-${i}`);
-      const app = await Application.create({ trialId: trial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: { measurementsMm: { hip: size.bodyMm.hip, inseam: (30 - (i === 0 ? 2 : 0)) * IN } }, adviceSnapshot: null, plannedFabric: 'Twill', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-      const e = await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null });
+      const { enrollment: e } = await enrolTester(trial.id, user.id, size.id, { profileSnapshot: { measurementsMm: { hip: size.bodyMm.hip, inseam: (30 - (i === 0 ? 2 : 0)) * IN } }, plannedFabric: 'Twill' });
       type Alteration = { area: 'rise' | 'leg'; kind: string; amountMm: number; where: 'back' | 'both'; note: string; otherText: string };
       const alterations: Alteration[] = [{ area: 'rise', kind: 'back-rise', amountMm: (0.75 + (i % 4) * 0.05) * IN, where: 'back', note: '', otherText: '' }];
       if (i === 0) alterations.push({ area: 'leg', kind: 'leg-length', amountMm: -2 * IN, where: 'both', note: '', otherText: '' });

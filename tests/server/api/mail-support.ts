@@ -7,7 +7,7 @@ import { Application, Enrollment, Membership, Milestone, Pattern, PatternSize, R
 import { migrateUp } from '../../../db/migrator';
 import { createSequelize } from '../../../db/sequelize';
 import type { MilestoneKind } from '../../../server/domain/trials';
-import { createUser } from '../../support/factories';
+import { createUser, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 /** `headers` holds each raw header line by its lower-case name. */
@@ -138,20 +138,7 @@ export async function createTrialWorld(options: { zones: string[]; dues: Partial
     const user = await createUser(`tester${i}`, { name: `Tester ${zone}` });
     await user.update({ timeZone: zone });
     await Membership.create({ studioId: studio.id, userId: user.id, role: 'tester' });
-    const application = await Application.create({
-      trialId: trial.id,
-      userId: user.id,
-      sizeId: size.id,
-      variantId: null,
-      profileSnapshot: {},
-      adviceSnapshot: null,
-      plannedFabric: 'Linen',
-      experience: 'confident',
-      photoConsent: 'staff-only',
-      appliedAt: new Date(),
-      status: 'selected',
-    });
-    const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: application.id, userId: user.id, sizeId: size.id, variantId: null });
+    const { application, enrollment } = await enrolTester(trial.id, user.id, size.id);
     testers.push({ user: (await User.findByPk(user.id))!, application, enrollment });
   }
   return { studio, owner, coordinator, trial, size, testers };

@@ -1,6 +1,6 @@
 import request from 'supertest';
-import { Application, Enrollment, Pattern, PatternSize, Photo, Report, Trial, type User } from '../../../db/models';
-import { bearer, createStudioWorld, createUser, addMember, type StudioWorld } from '../../support/factories';
+import { Pattern, PatternSize, Photo, Report, Trial, type User } from '../../../db/models';
+import { bearer, createStudioWorld, createUser, addMember, type StudioWorld, enrolTester } from '../../support/factories';
 import { jpegWithGpsAndOrientation } from '../../support/sample-files';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
@@ -16,8 +16,7 @@ describe('the photo wall of a trial and a tester’s photo consent', () => {
   const wall = (query = '') => `/api/studios/${w.studio.id}/trials/${trialId}/photos${query}`;
 
   async function enrol(trial: string, user: User, size: PatternSize) {
-    const app = await Application.create({ trialId: trial, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Linen', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    return (await Enrollment.create({ trialId: trial, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null })).id;
+    return (await enrolTester(trial, user.id, size.id)).enrollment.id;
   }
 
   async function upload(user: User, enrollmentId: string, fields: { stage: string; view: string; consent: string }) {

@@ -1,8 +1,8 @@
 import { GetObjectCommand } from '@aws-sdk/client-s3';
 import { gps, parse } from 'exifr';
 import request from 'supertest';
-import { Application, Enrollment, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
-import { bearer, createStudioWorld, type StudioWorld } from '../../support/factories';
+import { Enrollment, Pattern, PatternSize, Photo, Trial } from '../../../db/models';
+import { bearer, createStudioWorld, type StudioWorld, enrolTester } from '../../support/factories';
 import { jpegWithGpsAndOrientation, tinyPdf } from '../../support/sample-files';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
@@ -20,8 +20,7 @@ describe('photos of a tester’s toile and garment', () => {
     const size = await PatternSize.create({ patternId: pattern.id, label: 'S', position: 0, bodyMm: { hip: 950 } });
     const trial = await Trial.create({ studioId: w.studio.id, patternId: pattern.id, slug: `photos-${Date.now()}`, title: 'Wrap skirt', state: 'running', coverage: { sizes: [{ sizeId: size.id, target: 2 }], heightBands: [], variants: [] } });
     const enrol = async (userId: string) => {
-      const app = await Application.create({ trialId: trial.id, userId, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Linen', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-      return (await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId, sizeId: size.id, variantId: null })).id;
+      return (await enrolTester(trial.id, userId, size.id)).enrollment.id;
     };
     enrollmentId = await enrol(w.users.tester.id);
     otherEnrollmentId = await enrol(w.users.otherTester.id);

@@ -1,7 +1,7 @@
 import Papa from 'papaparse';
 import request from 'supertest';
-import { Application, Draft, Enrollment, Pattern, PatternSize, PatternVariant, Trial, type User } from '../../../db/models';
-import { bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
+import { Draft, Pattern, PatternSize, PatternVariant, Trial, type User } from '../../../db/models';
+import { bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 const IN = 25.4;
@@ -17,8 +17,7 @@ describe('report sections: what was sewn, fabric used, and the staff filters by 
 
   async function tester(i: number, size: PatternSize) {
     const user = await createUser(`sections-${i}`);
-    const app = await Application.create({ trialId: trial.id, userId: user.id, sizeId: size.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'Linen', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    const enrollment = await Enrollment.create({ trialId: trial.id, applicationId: app.id, userId: user.id, sizeId: size.id, variantId: null });
+    const { enrollment } = await enrolTester(trial.id, user.id, size.id);
     return { user, url: `/api/me/enrollments/${enrollment.id}/reports/final` };
   }
 

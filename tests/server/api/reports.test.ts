@@ -1,6 +1,6 @@
 import request from 'supertest';
-import { Application, Enrollment, Milestone, Pattern, PatternSize, Trial } from '../../../db/models';
-import { bearer, createStudioWorld, type StudioWorld } from '../../support/factories';
+import { Enrollment, Milestone, Pattern, PatternSize, Trial } from '../../../db/models';
+import { bearer, createStudioWorld, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 const IN = 25.4;
@@ -25,8 +25,7 @@ describe('check-in and final reports', () => {
   afterAll(() => t.close());
 
   async function enrol(userId: string) {
-    const app = await Application.create({ trialId: trial.id, userId, sizeId: sizeM.id, variantId: null, profileSnapshot: {}, adviceSnapshot: null, plannedFabric: 'French terry', experience: 'confident', photoConsent: 'staff-only', appliedAt: new Date(), status: 'selected' });
-    return Enrollment.create({ trialId: trial.id, applicationId: app.id, userId, sizeId: sizeM.id, variantId: null });
+    return (await enrolTester(trial.id, userId, sizeM.id, { plannedFabric: 'French terry' })).enrollment;
   }
 
   it('saves as the tester goes: each part sent replaces that part and keeps the rest; bad parts are named and change nothing', async () => {
