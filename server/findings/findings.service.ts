@@ -25,6 +25,11 @@ import type { Thresholds } from '../analysis/thresholds';
 
 const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement]));
 
+/** How a coordinator read each "other" alteration of a trial: its words (as otherTextKey) → kind. */
+export async function otherMappingsOf(trialId: string): Promise<Map<string, string>> {
+  return new Map((await OtherAlterationMapping.findAll({ where: { trialId } })).map((m) => [m.textKey, m.kind]));
+}
+
 /**
  * The reports that speak for each tester and draft: the submitted final report of that draft, or,
  * when the tester has none for it, their submitted check-in on that draft (a toile tells the
@@ -58,7 +63,7 @@ export async function analysisInputFor(trial: Trial): Promise<AnalysisInput> {
       { model: Application, as: 'application' },
     ],
   });
-  const mapped = new Map((await OtherAlterationMapping.findAll({ where: { trialId: trial.id } })).map((m) => [m.textKey, m.kind]));
+  const mapped = await otherMappingsOf(trial.id);
   const kindOf = (a: { kind: string; otherText: string }) => (a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? `other: ${a.otherText.trim()}`) : a.kind);
   const reports: AnalysisInput['reports'] = [];
   for (const e of enrollments) {
@@ -220,7 +225,7 @@ export async function addFindingNote(trial: Trial, user: User, input: z.output<t
  */
 export async function otherAlterations(trial: Trial & { pattern?: { category: string } }) {
   const reports = await Report.findAll({ include: [{ model: Enrollment, as: 'enrollment', where: { trialId: trial.id }, attributes: [] }] });
-  const mappings = new Map((await OtherAlterationMapping.findAll({ where: { trialId: trial.id } })).map((m) => [m.textKey, m.kind]));
+  const mappings = await otherMappingsOf(trial.id);
   const groups = new Map<string, { text: string; reports: number; amountsMm: number[] }>();
   for (const r of reports) {
     for (const a of r.content.alterations ?? []) {

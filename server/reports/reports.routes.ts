@@ -1,9 +1,9 @@
 import { Router, type Response } from 'express';
 import Papa from 'papaparse';
 import { z } from 'zod';
-import { OtherAlterationMapping } from '../../db/models';
 import { requireStudio, requireUser } from '../auth/guards';
 import { otherTextKey } from '../domain/schemas/findings';
+import { otherMappingsOf } from '../findings/findings.service';
 import { reportDraftSchema } from '../domain/schemas/reports';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
@@ -57,7 +57,7 @@ export function trialReportsRouter(): Router {
   router.get('/reports.csv', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
     const q = res.locals.query as z.output<typeof listQuery>;
     const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
-    const mapped = new Map((await OtherAlterationMapping.findAll({ where: { trialId: trial.id } })).map((m) => [m.textKey, m.kind]));
+    const mapped = await otherMappingsOf(trial.id);
     const rows = (await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft, variant: q.variant })).flatMap((r): Record<string, string | number | boolean>[] => {
       const f = r.content.fabric;
       const base = {
