@@ -1,6 +1,9 @@
 # Sourced by the other scripts: one place for the local ports and folders.
 # Every value can be overridden from the environment.
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+# A second checkout on the same machine keeps its own ports in .env.local (not committed),
+# e.g. PGPORT=54339 FAKE_S3_PORT=4579 FAKE_SMTP_PORT=1035 FAKE_INBOX_PORT=1090 PORT=8090.
+if [[ -f "$ROOT/.env.local" ]]; then set -a; source "$ROOT/.env.local"; set +a; fi
 export BASTED_DATA_DIR="${BASTED_DATA_DIR:-$ROOT/.data}"
 export PGPORT="${PGPORT:-54329}"
 export DB_USER="${DB_USER:-basted}"
