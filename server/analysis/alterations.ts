@@ -4,7 +4,7 @@
 import { mean, median, sampleStandardDeviation } from 'simple-statistics';
 import { pearson } from './correlation';
 import { fisherExact } from './fisher';
-import { holmAdjust } from './multiple-testing';
+import { rateAboveP } from './binomial';
 import { wilsonInterval } from './proportions';
 import { olsFit } from './regression';
 import type { Thresholds } from './thresholds';
@@ -24,7 +24,7 @@ export interface DraftTester {
   report: TesterReport;
 }
 
-export type AlterationStats = Omit<Finding, 'class' | 'sizes' | 'reasons'>;
+export type AlterationStats = Omit<Finding, 'class' | 'sizes' | 'reasons' | 'tests' | 'family'>;
 
 export function directionOf(amountMm: number): Direction {
   return amountMm > 0 ? 'add' : 'remove';
@@ -124,28 +124,24 @@ export function alterationStats(
     return { size, index, n: inSize.length, k: amounts.length, amounts };
   });
 
-  // One size against the rest, one-sided (this size's rate is higher), Holm over tested sizes.
+  // One size against the rest, one-sided (this size's rate is higher). The correction for the
+  // number of sizes and tests happens over the whole kind (classify.ts), not here.
   const occupied = perSize.filter((s) => s.n > 0);
   const testable = occupied.length >= 2;
-  const rawP = testable
-    ? occupied.map((s) => fisherExact(s.k, s.n - s.k, K - s.k, N - s.n - (K - s.k)).greater)
-    : [];
-  const adjusted = holmAdjust(rawP);
-  const pBySize = new Map(occupied.map((s, i) => [s.index, { raw: rawP[i], adj: adjusted[i] }] as const));
+  const rawP = new Map(
+    testable ? occupied.map((s) => [s.index, fisherExact(s.k, s.n - s.k, K - s.k, N - s.n - (K - s.k)).greater] as const) : [],
+  );
 
-  const bySize: SizeStats[] = perSize.map((s) => {
-    const tests = pBySize.get(s.index);
-    return {
-      size: s.size,
-      n: s.n,
-      k: s.k,
-      rate: s.n > 0 ? s.k / s.n : null,
-      wilson: s.n > 0 ? wilsonInterval(s.k, s.n, t.confidence) : null,
-      ...summary(s.amounts),
-      fisherP: tests?.raw ?? null,
-      holmP: tests?.adj ?? null,
-    };
-  });
+  const bySize: SizeStats[] = perSize.map((s) => ({
+    size: s.size,
+    n: s.n,
+    k: s.k,
+    rate: s.n > 0 ? s.k / s.n : null,
+    wilson: s.n > 0 ? wilsonInterval(s.k, s.n, t.confidence) : null,
+    ...summary(s.amounts),
+    fisherP: rawP.get(s.index) ?? null,
+    holmP: null,
+  }));
 
   const trend = cochranArmitage(perSize.map((s) => ({ score: s.index, n: s.n, k: s.k })));
 
@@ -161,9 +157,17 @@ export function alterationStats(
     }
   }
 
-  // Amount against the tester's own body delta for the measurement this kind maps to.
-  const pairs = makers
-    .map((x) => [x.bodyDeltaMm[kind], x.amounts.get(k)] as const)
+  // Every tester's amount in this direction (0 for no change) on the size order: one test that uses
+  // both how many change and by how much.
+  const everyone = olsFit(testers.map((x) => x.sizeIndex), testers.map((x) => x.amounts.get(k) ?? 0));
+  const sizeTrend = everyone ? { slopeMmPerSize: everyone.slope, p: everyone.slopeP } : null;
+
+  // The tester's net change of this kind (added minus taken out; 0 for no change) against their own
+  // body difference for the measurement the kind answers to, over every tester whose difference is
+  // known. Personal fit is a property of the kind: testers above the chart add, those below take
+  // out, those near it change nothing, so both directions and the testers who changed nothing count.
+  const pairs = testers
+    .map((x) => [x.bodyDeltaMm[kind], (x.amounts.get(`${kind}|add`) ?? 0) + (x.amounts.get(`${kind}|remove`) ?? 0)] as const)
     .filter((p): p is readonly [number, number] => typeof p[0] === 'number' && Number.isFinite(p[0]));
   let bodyCorrelation: AlterationStats['bodyCorrelation'] = null;
   if (pairs.length >= t.personalFitMinPairs) {
@@ -179,9 +183,12 @@ export function alterationStats(
     wilson: N > 0 ? wilsonInterval(K, N, t.confidence) : [0, 1],
     ...summary(ys),
     directionShare: kindMakers > 0 ? K / kindMakers : 0,
+    makerSizes: perSize.filter((s) => s.k > 0).length,
+    rateAbove: { rate: t.draftWideMinLowerBound, p: rateAboveP(K, N, t.draftWideMinLowerBound) },
     bySize,
     trend,
     amountSlope,
+    sizeTrend,
     bodyCorrelation,
   };
 }

@@ -44,3 +44,25 @@ export function hypergeometricPdf(k: number, population: number, successes: numb
   if (lo === hi) return 1;
   return jStat.hypgeom.pdf(k, population, successes, draws);
 }
+
+/**
+ * P(X ≤ k) for X ~ Binomial(n, p), through the regularized incomplete beta function:
+ * P(X ≤ k) = I_{1−p}(n − k, k + 1). (jstat's own binomial.cdf rounds to 10 decimals, which
+ * loses the small tails the tests need.)
+ */
+export function binomialCdf(k: number, n: number, p: number): number {
+  if (k < 0) return 0;
+  if (k >= n) return 1;
+  if (p <= 0) return 1;
+  if (p >= 1) return 0;
+  return Math.min(1, Math.max(0, jStat.ibeta(1 - p, n - k, k + 1)));
+}
+
+/** P(X ≥ k) for X ~ Binomial(n, p) = I_p(k, n − k + 1), kept precise in the far tail. */
+export function binomialUpper(k: number, n: number, p: number): number {
+  if (k <= 0) return 1;
+  if (k > n) return 0;
+  if (p <= 0) return 0;
+  if (p >= 1) return 1;
+  return Math.min(1, Math.max(0, jStat.ibeta(p, k, n - k + 1)));
+}

@@ -1,5 +1,5 @@
-import { alterationStats, draftTesters, kindDirections } from './alterations';
-import { classifyAlteration } from './classify';
+import { alterationStats, draftTesters, kindDirections, type AlterationStats } from './alterations';
+import { classifyAlteration, judgeDraft } from './classify';
 import { resolveThresholds, type Thresholds } from './thresholds';
 import type { AnalysisInput, DraftAnalysis, Finding, FindingClass } from './types';
 
@@ -15,32 +15,45 @@ export const CLASS_ORDER: readonly FindingClass[] = [
 
 /**
  * Findings for one draft: every kind + direction that at least one tester of the draft made,
- * with its statistics, class and reasons. Pure: the same input always gives the same output.
+ * with its statistics, class and reasons. The kinds are judged together (classify.ts), so the
+ * error is held over the whole draft. Pure: the same input always gives the same output.
  */
 export function analyzeDraft(input: AnalysisInput, draft: string, thresholds?: Partial<Thresholds>): DraftAnalysis {
   const t = resolveThresholds(thresholds);
   const testers = draftTesters(input, draft);
-  const findings: Finding[] = kindDirections(testers).map(({ kind, direction }) => {
-    const stats = alterationStats(testers, input.sizes, kind, direction, t);
-    const c = classifyAlteration(stats, t, draft);
+  const stats: AlterationStats[] = kindDirections(testers).map(({ kind, direction }) => alterationStats(testers, input.sizes, kind, direction, t));
+  const judged = judgeDraft(stats, t);
+  const findings: Finding[] = stats.map((s) => {
+    const judgement = judged.get(`${s.kind}|${s.direction}`) ?? { tests: [], family: { size: 0, kindP: 1, chosen: false, level: t.alpha, kindsTested: 0, kindsChosen: 0 } };
+    const c = classifyAlteration(s, t, {
+      draft,
+      judgement,
+      without: (sizes) => alterationStats(testers.filter((x) => !sizes.includes(x.size)), input.sizes, s.kind, s.direction, t),
+    });
+    const adjusted = new Map(judgement.tests.filter((o) => o.test === 'size').map((o) => [o.size, o.adjustedP] as const));
     // Key order follows the documented output format.
     return {
-      kind: stats.kind,
-      direction: stats.direction,
+      kind: s.kind,
+      direction: s.direction,
       class: c.class,
-      testers: stats.testers,
-      count: stats.count,
-      rate: stats.rate,
-      wilson: stats.wilson,
-      meanMm: stats.meanMm,
-      medianMm: stats.medianMm,
-      sdMm: stats.sdMm,
-      directionShare: stats.directionShare,
-      bySize: stats.bySize,
-      trend: stats.trend,
-      amountSlope: stats.amountSlope,
-      bodyCorrelation: stats.bodyCorrelation,
+      testers: s.testers,
+      count: s.count,
+      rate: s.rate,
+      wilson: s.wilson,
+      meanMm: s.meanMm,
+      medianMm: s.medianMm,
+      sdMm: s.sdMm,
+      directionShare: s.directionShare,
+      makerSizes: s.makerSizes,
+      rateAbove: s.rateAbove,
+      bySize: s.bySize.map((b) => ({ ...b, holmP: adjusted.get(b.size) ?? null })),
+      trend: s.trend,
+      amountSlope: s.amountSlope,
+      sizeTrend: s.sizeTrend,
+      bodyCorrelation: s.bodyCorrelation,
       sizes: c.sizes,
+      tests: judgement.tests,
+      family: judgement.family,
       reasons: c.reasons,
     };
   });

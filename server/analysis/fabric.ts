@@ -1,9 +1,11 @@
-// Fabric check (DESIGN.md §7): the length testers used against the stated need per size × width,
-// with napped / one-way layouts kept apart because they need more fabric by design.
+// Fabric check: the length testers used against the stated need per size × width, with napped /
+// one-way layouts kept apart because they need more fabric by design. A size × width is flagged
+// only when most of its testers, and at least two, used more than stated: one generous cutter of
+// three is not a short yardage.
 import { median } from 'simple-statistics';
 import { resolveThresholds, type Thresholds } from './thresholds';
 import type { AnalysisInput, FabricCell, FabricNeed } from './types';
-import { mm, pct, testersWord } from './wording';
+import { fabric, need as needText, pct, testersWord, width } from './wording';
 
 /**
  * The stated need for a report: same size and layout, nearest stated width within the tolerance
@@ -57,22 +59,23 @@ export function fabricCheck(input: AnalysisInput, draft: string, thresholds?: Pa
         return {
           size, widthMm, napped, needMm: null, n, medianUsedMm: med, maxUsedMm: Math.max(...used),
           overNeed: 0, overNeedShare: null, flagged: false,
-          reasons: [`Size ${size}, ${mm(widthMm)} wide, ${layout}: no stated need for this width and layout to compare with.`],
+          reasons: [`Size ${size}, ${width(widthMm)} wide, ${layout}: no stated need for this width and layout to compare with.`],
         };
       }
       const over = used.filter((u) => u > need.needMm).length;
       const share = over / n;
-      const medianOver = med > need.needMm;
-      const manyShort = share >= t.fabricShortShare;
-      const flagged = medianOver || manyShort;
+      const flagged = share > t.fabricShortShare && over >= t.fabricMinOver;
       const reasons: string[] = [];
-      if (medianOver) {
-        reasons.push(`Size ${size}, ${mm(widthMm)} wide, ${layout}: median used ${mm(med)} exceeds the stated ${mm(need.needMm)}.`);
-      }
-      if (manyShort) {
+      if (flagged) {
         reasons.push(
-          `Size ${size}, ${mm(widthMm)} wide, ${layout}: ${over} of ${testersWord(n)} (${pct(share)}) needed more than ` +
-            `the stated ${mm(need.needMm)} (rule ≥ ${pct(t.fabricShortShare)}).`,
+          `Size ${size}, ${width(widthMm)} wide, ${layout}: ${over} of ${testersWord(n)} (${pct(share)}) used more than ` +
+            `the stated ${needText(need.needMm)} (median used ${fabric(med)}, most ${fabric(Math.max(...used))}; rule: more than ` +
+            `${pct(t.fabricShortShare)} of the testers and at least ${t.fabricMinOver}).`,
+        );
+      } else if (over > 0) {
+        reasons.push(
+          `Size ${size}, ${width(widthMm)} wide, ${layout}: ${over} of ${testersWord(n)} used more than the stated ` +
+            `${needText(need.needMm)}, not most of them (median used ${fabric(med)}).`,
         );
       }
       return {

@@ -60,6 +60,16 @@ export const analysisFileSchema = z
     sizes: z.array(label, { error: 'expected a list of sizes, smallest first' }).min(1, { error: 'needs at least one size' }),
     reports: z.array(reportSchema, { error: 'expected a list of reports' }).min(1, { error: 'needs at least one report' }),
     fabricNeeds: z.array(needSchema, { error: 'expected a list of fabric needs' }).optional(),
+    /** Findings the studio will fix in the next draft (for --changes). */
+    willFix: z
+      .array(
+        z.strictObject({
+          kind: z.string({ error: 'expected a string' }).trim().min(1, { error: 'must not be empty' }),
+          direction: z.enum(['add', 'remove'], { error: 'expected "add" or "remove"' }),
+        }),
+        { error: 'expected a list of {kind, direction}' },
+      )
+      .optional(),
   }, { error: 'expected an object with "sizes" and "reports"' })
   .superRefine((file, ctx) => {
     const firstAt = new Map<string, number>();
@@ -115,7 +125,9 @@ function describeIssue(issue: z.core.$ZodIssue): string[] {
   return [`${formatPath(issue.path)}: ${issue.message}`];
 }
 
-export type ParseResult = { ok: true; input: AnalysisInput } | { ok: false; errors: string[] };
+export type ParseResult =
+  | { ok: true; input: AnalysisInput; willFix?: { kind: string; direction: 'add' | 'remove' }[] }
+  | { ok: false; errors: string[] };
 
 /** Validate a parsed JSON value as an analysis file; never throws. */
 export function parseAnalysisInput(data: unknown): ParseResult {
@@ -139,5 +151,5 @@ export function parseAnalysisInput(data: unknown): ParseResult {
     })),
     ...(file.fabricNeeds ? { fabricNeeds: file.fabricNeeds } : {}),
   };
-  return { ok: true, input };
+  return { ok: true, input, ...(file.willFix ? { willFix: file.willFix } : {}) };
 }

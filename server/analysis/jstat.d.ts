@@ -21,5 +21,7 @@ declare module 'jstat' {
     normal: JStatNormal;
     studentt: JStatStudentT;
     hypgeom: JStatHypergeometric;
+    /** Regularized incomplete beta function I_x(a, b). */
+    ibeta(x: number, a: number, b: number): number;
   };
 }

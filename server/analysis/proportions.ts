@@ -22,3 +22,20 @@ export function wilsonInterval(k: number, n: number, confidence = 0.95): Interva
   const hi = k === n ? 1 : Math.min(1, centre + half);
   return [lo, hi];
 }
+
+/**
+ * Newcombe's hybrid score interval for the difference of two independent proportions
+ * p1 − p2 = k1/n1 − k2/n2 (Newcombe 1998, "Interval estimation for the difference between
+ * independent proportions", method 10), built from the two Wilson intervals:
+ *   lower = d − √((p1 − l1)² + (u2 − p2)²),  upper = d + √((u1 − p1)² + (p2 − l2)²).
+ */
+export function newcombeDifference(k1: number, n1: number, k2: number, n2: number, confidence = 0.95): Interval {
+  const p1 = k1 / n1;
+  const p2 = k2 / n2;
+  const [l1, u1] = wilsonInterval(k1, n1, confidence);
+  const [l2, u2] = wilsonInterval(k2, n2, confidence);
+  const d = p1 - p2;
+  const lower = d - Math.sqrt((p1 - l1) ** 2 + (u2 - p2) ** 2);
+  const upper = d + Math.sqrt((u1 - p1) ** 2 + (p2 - l2) ** 2);
+  return [Math.max(-1, lower), Math.min(1, upper)];
+}

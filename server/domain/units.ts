@@ -321,16 +321,19 @@ function signed(steps: number, body: string): string {
 }
 
 /**
- * Shows a stored length in the person's unit: inches to the nearest 1/8 in as a mixed fraction in
- * lowest terms ("1 3/8 in", "3/8 in", "2 in", "-1/2 in"), centimetres to one decimal ("3.5 cm").
+ * Shows a stored length in the person's unit: inches to the nearest 1/8 in (1/16 in with
+ * `sixteenths`) as a mixed fraction in lowest terms ("1 3/8 in", "3/8 in", "2 in", "-1/2 in",
+ * "5/16 in"), centimetres to one decimal ("3.5 cm").
  * Halves round away from zero; a value that rounds to zero prints "0 in" / "0.0 cm", never "-0".
  * The output is itself accepted by parseLength.
  */
-export function formatLength(mm: number, unit: LengthUnit): string {
+export function formatLength(mm: number, unit: LengthUnit, opts: { sixteenths?: boolean } = {}): string {
   if (!Number.isFinite(mm)) return '';
   if (unit === 'in') {
-    const eighths = roundHalfAwayFromZero((mm / MM_PER_INCH) * 8);
-    return `${signed(eighths, mixedFraction(Math.abs(eighths), 8))} in`;
+    // Sixteenths where they matter: small amounts and the ends of narrow bands (an eighth is 3.2 mm).
+    const steps = opts.sixteenths ? 16 : 8;
+    const count = roundHalfAwayFromZero((mm / MM_PER_INCH) * steps);
+    return `${signed(count, mixedFraction(Math.abs(count), steps))} in`;
   }
   // Tenths of a centimetre are whole millimetres.
   const tenths = roundHalfAwayFromZero(mm);
@@ -353,4 +356,17 @@ export function formatFabricLength(mm: number, unit: FabricUnit): string {
   const cm = roundHalfAwayFromZero(mm / MM_PER_CM);
   const abs = Math.abs(cm);
   return `${signed(cm, `${Math.floor(abs / 100)}.${String(abs % 100).padStart(2, '0')}`)} m`;
+}
+
+/**
+ * Shows a stated fabric NEED: like formatFabricLength, but rounded up (to the next 1/8 yd, or the
+ * next centimetre), because a yardage shown short leaves the sewist without enough fabric
+ * (common practice on pattern envelopes: a need is never rounded down).
+ */
+export function formatFabricNeed(mm: number, unit: FabricUnit): string {
+  if (!Number.isFinite(mm)) return '';
+  const step = unit === 'yd' ? MM_PER_YARD / 8 : MM_PER_CM;
+  // Cut float noise first so an exact 2 1/4 yd (2057.4 mm) is not pushed up to 2 3/8.
+  const steps = Math.ceil(Number((mm / step).toFixed(9)));
+  return formatFabricLength(steps * step, unit);
 }

@@ -1,11 +1,9 @@
-// Classification on generated datasets with planted problems (seeded, so deterministic) and on
-// datasets with no planted problem, where at most 1 in 20 kinds may be flagged.
-import { analyzeDraft, resolveThresholds, type Finding } from '../../../server/analysis';
+// Classification on generated datasets with planted problems (seeded, so deterministic).
+import { analyzeDraft, renderReasons, resolveThresholds, type Finding } from '../../../server/analysis';
 import {
   PLANTED,
   SPECIFIC_SIZE,
   generateDataset,
-  nullDataset,
   type Plant,
 } from './planted-data';
 
@@ -27,13 +25,12 @@ function tally(plant: Plant): Map<string, number> {
 }
 
 describe('planted problems are classified as planted', () => {
-  // Minimum share of 200 seeded datasets that must come out right. Grading is checked before
-  // draft-wide, and on a flat rate the trend test and the amount slope each fire by chance with
-  // probability alpha, so a draft-wide plant is called "grading" in roughly 2 × 5 % of datasets
-  // (measured: 13 of 200); the other plants are near-certain.
+  // Minimum share of 200 seeded datasets (11 sizes × 3 testers) that must come out right. Grading
+  // is checked before draft-wide; with the tests of a kind corrected together, a flat rate is
+  // rarely taken for a trend any more, so a draft-wide plant is missed only now and then.
   it.each<[Plant, number]>([
     ['grading', 0.97],
-    ['draft-wide', 0.88],
+    ['draft-wide', 0.97],
     ['size-specific', 0.97],
     ['personal-fit', 0.97],
     ['too-few-reports', 1],
@@ -52,12 +49,13 @@ describe('planted problems are classified as planted', () => {
     const grading = plantedFinding('grading', seed);
     expect(grading?.class).toBe('grading');
     expect(grading?.trend.p).toBeLessThan(0.05);
-    expect(grading?.reasons.join(' ')).toMatch(/Cochran–Armitage trend z = \d+\.\d\d/);
+    expect(grading?.reasons.join(' ')).toMatch(/Cochran–Armitage z = \d+\.\d\d/);
+    expect(renderReasons(grading!.reasons).join(' ')).toMatch(/the amount moves by \d+\.\d mm per size step/);
 
     const wide = plantedFinding('draft-wide', seed);
     expect(wide?.class).toBe('draft-wide');
     expect(wide?.wilson[0]).toBeGreaterThanOrEqual(0.25);
-    expect(wide?.reasons.join(' ')).toMatch(/lower 95% bound is \d+%/);
+    expect(wide?.reasons.join(' ')).toMatch(/\d+% of the testers made it, above 25% \(exact binomial test, p < 0\.0001/);
 
     const specific = plantedFinding('size-specific', seed);
     expect(specific?.class).toBe('size-specific');
@@ -123,18 +121,4 @@ describe('classification order', () => {
   });
 });
 
-describe('datasets with no planted problem', () => {
-  // 20 kinds, 33 testers, each tester makes each kind with probability `rate` in a random
-  // direction, with random amounts and body deltas unrelated to anything.
-  it.each([0.05, 0.1])('flag at most 1 in 20 kinds over 200 datasets at rate %f', (rate) => {
-    let kinds = 0;
-    let flagged = 0;
-    for (let seed = 1; seed <= 200; seed++) {
-      const { findings } = analyzeDraft(nullDataset(104729 * seed + 1, 20, rate), '1');
-      kinds += findings.length;
-      flagged += findings.filter((f) => f.class !== 'none' && f.class !== 'too-few-reports').length;
-    }
-    expect(kinds).toBeGreaterThan(1000);
-    expect(flagged / kinds).toBeLessThanOrEqual(0.05);
-  });
-});
+// Datasets with nothing planted, at base rates 5 %, 15 % and 30 %, are in calibration.test.ts.

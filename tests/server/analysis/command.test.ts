@@ -49,7 +49,10 @@ describe('scripts/analyze.ts', () => {
       );
       expect(f.reasons.length).toBeGreaterThan(0);
     }
-    expect(out.fitRatings.some((c: { flagged: boolean }) => c.flagged)).toBe(true);
+    // Ratings: the short rise of draft 1 shows across the whole range; single cells are hints at most.
+    const area = (name: string) => out.fitAreas.find((a: { area: string }) => a.area === name);
+    expect(area('rise').flag).toBe('whole-range');
+    expect(out.fitRatings.some((c: { hint: boolean }) => c.hint)).toBe(true);
     expect(out.unclearSteps[0]).toMatchObject({ step: '7', flagged: true });
   });
 
@@ -61,7 +64,7 @@ describe('scripts/analyze.ts', () => {
     expect(out.findings.map((f: { class: string }) => f.class)).toEqual(['too-few-reports']);
   });
 
-  it('--compare gives a comparison with fixed, still-present and not-enough-data', () => {
+  it('--compare gives a comparison with fixed, improved, personal fit and not-enough-data', () => {
     const r = analyze(drafts, '--compare', '1', '2');
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
@@ -70,7 +73,8 @@ describe('scripts/analyze.ts', () => {
       out.comparison.map((c: { kind: string; direction: string; status: string }) => [`${c.kind}/${c.direction}`, c.status]),
     );
     expect(status['rise-length/add']).toBe('fixed');
-    expect(status['back-crotch-scoop/add']).toBe('still-present');
+    expect(status['back-crotch-scoop/add']).toBe('improved');
+    expect(status['leg-length/remove']).toBe('personal-fit');
     expect(status['waist/remove']).toBe('not-enough-data');
     for (const c of out.comparison) expect(Object.keys(c)).toEqual(expect.arrayContaining(['kind', 'direction', 'from', 'to', 'status', 'p']));
   });
@@ -82,7 +86,51 @@ describe('scripts/analyze.ts', () => {
     expect(r.stdout).toMatch(/^Draft 1: 33 testers/);
     expect(r.stdout).toMatch(/grading\s+back-crotch-scoop\s+add\s+\d+\/33/);
     expect(r.stdout).toContain('Draft comparison');
-    expect(r.stdout).toMatch(/rise-length\s+add\s+draft-wide\s+1\s+2\s+\d+\/33\s+\d+\/22\s+\S+\s+fixed/);
+    expect(r.stdout).toMatch(/rise-length\s+add\s+draft-wide\s+1\s+2\s+\d+\/33\s+\d+\/22\s+\S+\s+-\d+% \(-\d+% to -\d+%\)\s+fixed/);
+  });
+
+  it('--changes adds the next-draft change table for every finding that points at the pattern', () => {
+    const r = analyze(single, '--changes');
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout);
+    type Row = { kind: string; size: string; amountMm: number | null; interval: [number, number] | null; basis: string };
+    const rows = (kind: string): Row[] => out.changes.filter((c: Row) => c.kind === kind);
+    const finding = (kind: string) => out.findings.find((f: { kind: string }) => f.kind === kind);
+    // Draft-wide: the draft's median at every size, inside its order-statistic interval.
+    const rise = rows('rise-length');
+    expect(rise).toHaveLength(11);
+    for (const row of rise) {
+      expect(row).toMatchObject({ basis: 'median', amountMm: finding('rise-length').medianMm });
+      expect(row.interval![0]).toBeLessThanOrEqual(row.amountMm!);
+      expect(row.interval![1]).toBeGreaterThanOrEqual(row.amountMm!);
+    }
+    // Grading: the fitted line, growing with size; where it crosses zero, no change.
+    const scoop = rows('back-crotch-scoop');
+    expect(scoop.every((row) => row.basis === 'fitted')).toBe(true);
+    const amounts = scoop.map((row) => row.amountMm as number);
+    for (let i = 1; i < amounts.length; i++) expect(amounts[i]).toBeGreaterThanOrEqual(amounts[i - 1] as number);
+    expect(amounts[0]).toBe(0);
+    expect(amounts[10]).toBeGreaterThan(amounts[5] as number);
+    expect(amounts[10]).toBeGreaterThan(15);
+    // Size-specific: the standout size's own median, nothing elsewhere.
+    const waist = rows('waist');
+    expect(waist.filter((row) => row.amountMm !== null).map((row) => row.size)).toEqual(['12']);
+    // Personal fit is no pattern change and is not listed.
+    expect(rows('leg-length')).toEqual([]);
+  });
+
+  it('--changes follows the "willFix" list of the file, and --unit in writes it in inches to 1/16', () => {
+    const data = JSON.parse(readFileSync(single, 'utf8'));
+    data.willFix = [{ kind: 'waist', direction: 'remove' }];
+    const file = path.join(dir, 'will-fix.json');
+    writeFileSync(file, JSON.stringify(data));
+    const json = JSON.parse(analyze(file, '--changes').stdout);
+    expect([...new Set(json.changes.map((c: { kind: string }) => c.kind))]).toEqual(['waist']);
+    const r = analyze(file, '--changes', '--unit', 'in', '--table');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('Suggested changes for the next draft, per size');
+    expect(r.stdout).toMatch(/Waist larger or smaller, taken out\s+12\s+−1 1\/4 in\s+−1 5\/8 in to −1 1\/8 in\s+size-median/);
+    expect(r.stdout).not.toContain(' mm');
   });
 
   it('a malformed file exits 2 naming report index and field', () => {

@@ -1,34 +1,11 @@
 // Seeded generator of invented fit-trial data with planted problems, shared by the tests and used
 // once to write the example files in examples/analysis/. Invented testers ("t1", …) only.
 import type { AnalysisInput, TesterReport } from '../../../server/analysis';
+import { eighths, mulberry32, normal } from '../../../server/analysis/calibration';
+
+export { mulberry32 };
 
 export const SIZES = ['0', '2', '4', '6', '8', '10', '12', '14', '16', '18', '20'];
-
-/** mulberry32: a tiny, well-known 32-bit PRNG; enough for reproducible test data. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Box–Muller normal deviate. */
-export function normal(rng: () => number, mean: number, sd: number): number {
-  const u = Math.max(rng(), Number.EPSILON);
-  const v = rng();
-  return mean + sd * Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
-}
-
-/** Testers report in eighths of an inch; store what they would have typed, converted to mm. */
-export function eighths(mmValue: number): number {
-  const e = Math.round(mmValue / 3.175);
-  const v = (e === 0 ? Math.sign(mmValue) || 1 : e) * 3.175;
-  return Math.round(v * 1000) / 1000;
-}
 
 export type Plant = 'grading' | 'draft-wide' | 'size-specific' | 'personal-fit' | 'too-few-reports';
 
@@ -136,27 +113,6 @@ export function generateReports(o: GenerateOptions): TesterReport[] {
 
 export function generateDataset(o: GenerateOptions): AnalysisInput {
   return { sizes: [...SIZES], reports: generateReports(o) };
-}
-
-/**
- * A dataset with no planted problem: `kinds` alteration kinds, each made by any tester with
- * probability `rate` in a random direction, random amounts and unrelated body deltas.
- */
-export function nullDataset(seed: number, kinds: number, rate: number, perSize = 3): AnalysisInput {
-  const rng = mulberry32(seed);
-  const reports: TesterReport[] = roster(perSize, '1').map((t) => {
-    const report: TesterReport = { tester: t.id, size: t.size, draft: '1', alterations: [], bodyDeltaMm: {} };
-    for (let k = 1; k <= kinds; k++) {
-      const kind = `kind-${String(k).padStart(2, '0')}`;
-      (report.bodyDeltaMm as Record<string, number>)[kind] = Math.round(normal(rng, 0, 30));
-      if (rng() < rate) {
-        const sign = rng() < 0.5 ? -1 : 1;
-        report.alterations.push({ kind, amountMm: eighths(sign * Math.abs(normal(rng, 12, 6))) });
-      }
-    }
-    return report;
-  });
-  return { sizes: [...SIZES], reports };
 }
 
 /**
