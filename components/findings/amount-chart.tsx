@@ -1,11 +1,11 @@
 import Svg, { Circle, Line, Text as SvgText } from 'react-native-svg';
 import type { Finding, SizeStats } from '@/server/analysis/types';
 import { colors, fonts } from '@/constants/theme';
-import { formatLength, type LengthUnit } from '@/server/domain/units';
+import type { LengthUnit } from '@/server/domain/units';
 import { sizeLabelStep, XTitle, YGrid } from './axes';
 import { ChartFrame } from './chart-frame';
 import { amountGeometry, type AmountGeometry } from './chart-geometry';
-import { pText } from './words';
+import { lengthText, pText } from './words';
 
 type Props = {
   bySize: readonly SizeStats[];
@@ -18,9 +18,9 @@ type Props = {
 export function amountSummary(name: string, bySize: readonly SizeStats[], fit: Finding['amountSlope'], unit: LengthUnit): string {
   const points = bySize
     .filter((s) => s.k > 0 && s.meanMm !== null)
-    .map((s) => `size ${s.size}: ${formatLength(s.meanMm as number, unit)} on average from ${s.k} ${s.k === 1 ? 'tester' : 'testers'}`);
+    .map((s) => `size ${s.size}: ${lengthText(s.meanMm as number, unit)} on average from ${s.k} ${s.k === 1 ? 'tester' : 'testers'}`);
   const line = fit
-    ? `The fitted line changes by ${formatLength(fit.slopeMmPerSize, unit)} per size step (${pText(fit.p)}, from ${fit.n} amounts over ${fit.sizes} sizes).`
+    ? `The fitted line changes by ${lengthText(fit.slopeMmPerSize, unit)} per size step (${pText(fit.p)}, from ${fit.n} amounts over ${fit.sizes} sizes).`
     : 'Too few amounts over too few sizes for a fitted line.';
   return `${name}, amount by size. ${points.length ? `${points.join('; ')}.` : 'No amounts.'} ${line}`;
 }

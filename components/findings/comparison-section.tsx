@@ -18,7 +18,16 @@ type Props = {
   busy: boolean;
 };
 
-const STATUS_MARK: Record<ComparisonStatus, string> = { fixed: '✓', 'still-present': '✗', 'not-enough-data': '?' };
+const STATUS_MARK: Record<ComparisonStatus, string> = { fixed: '✓', improved: '↘', 'still-present': '✗', 'not-enough-data': '?', 'personal-fit': '–' };
+
+/** "−67 points (−90 to −21)": the change in the rate with its interval, in percentage points. */
+function differenceText(d: NonNullable<ComparisonRow['difference']>): string {
+  const pts = (x: number) => {
+    const v = Math.round(x * 100);
+    return v > 0 ? `+${v}` : v < 0 ? `−${-v}` : '0';
+  };
+  return `change ${pts(d.estimate)} points (95% ${pts(d.interval[0])} to ${pts(d.interval[1])})`;
+}
 
 /** Did a later draft fix what an earlier one showed? Pick two drafts; each finding gets a status. */
 export function ComparisonSection({ drafts, compare, rows, onCompare, busy }: Props) {
@@ -50,12 +59,12 @@ export function ComparisonSection({ drafts, compare, rows, onCompare, busy }: Pr
               <View key={`${r.kind}|${r.direction}`} style={styles.row} testID={`comparison-${r.kind}|${r.direction}`}>
                 <View style={styles.head}>
                   <AppText style={styles.name}>{findingName(r)}</AppText>
-                  <AppText style={[styles.status, r.status === 'fixed' ? styles.fixed : r.status === 'still-present' ? styles.still : styles.unknown]}>
+                  <AppText style={[styles.status, r.status === 'fixed' ? styles.fixed : r.status === 'still-present' ? styles.still : styles.unknown]} testID={`status-${r.kind}|${r.direction}`}>
                     {`${STATUS_MARK[r.status]} ${STATUS_LABELS[r.status]}`}
                   </AppText>
                 </View>
                 <AppText variant="caption">
-                  {`${CLASS_LABELS[r.class]}${r.sizes.length ? ` (sizes ${r.sizes.join(', ')})` : ''} · draft ${r.from}: ${r.countFrom} of ${r.testersFrom} → draft ${r.to}: ${r.countTo} of ${r.testersTo} · ${pText(r.p)}`}
+                  {`${CLASS_LABELS[r.class]}${r.sizes.length ? ` (sizes ${r.sizes.join(', ')})` : ''} · draft ${r.from}: ${r.countFrom} of ${r.testersFrom} → draft ${r.to}: ${r.countTo} of ${r.testersTo}${r.difference ? ` · ${differenceText(r.difference)}` : ''} · ${pText(r.p)}${r.pExact ? ` (${r.pExact})` : ''}`}
                 </AppText>
                 {r.reasons.map((reason) => (
                   <AppText key={reason} variant="caption">

@@ -3,11 +3,10 @@ import { AppText } from '@/components/ui/text';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { triageOf, type FindingView } from '@/hooks/use-findings';
 import type { LengthUnit } from '@/server/domain/units';
-import { formatLength } from '@/server/domain/units';
 import { AmountChart } from './amount-chart';
 import { RateChart } from './rate-chart';
 import { TriagePanel, triageText } from './triage-panel';
-import { CLASS_HINTS, CLASS_LABELS, findingName, intervalText, isPatternProblem, percent, reasonInUnit } from './words';
+import { CLASS_HINTS, CLASS_LABELS, findingName, intervalText, isPatternProblem, lengthText, percent } from './words';
 
 type Props = {
   studioId: string;
@@ -49,18 +48,18 @@ export function FindingRow({ studioId, trialId, finding: f, drafts, unit, canTri
       </Pressable>
       {!open && f.reasons[0] ? (
         <AppText variant="caption" numberOfLines={2} style={styles.firstReason}>
-          {reasonInUnit(f.reasons[0], unit)}
+          {f.reasons[0]}
         </AppText>
       ) : null}
       {open ? (
         <View style={styles.detail}>
           <AppText variant="caption">{CLASS_HINTS[f.class]}</AppText>
           {f.reasons.map((r) => (
-            <AppText key={r}>{`• ${reasonInUnit(r, unit)}`}</AppText>
+            <AppText key={r}>{`• ${r}`}</AppText>
           ))}
           {f.meanMm !== null ? (
             <AppText variant="caption">
-              {`Amount: mean ${formatLength(f.meanMm, unit)}${f.medianMm !== null ? `, median ${formatLength(f.medianMm, unit)}` : ''}${f.sdMm !== null ? `, SD ${formatLength(f.sdMm, unit)}` : ''}.`}
+              {`Amount: mean ${lengthText(f.meanMm, unit)}${f.medianMm !== null ? `, median ${lengthText(f.medianMm, unit)}` : ''}${f.sdMm !== null ? `, SD ${lengthText(f.sdMm, unit)}` : ''}.`}
             </AppText>
           ) : null}
           <View style={[styles.charts, wide && styles.chartsWide]}>

@@ -5,8 +5,9 @@ import { Card } from '@/components/ui/card';
 import { Empty } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
 import { colors, fonts, radius, space } from '@/constants/theme';
-import type { FabricCell, FitRatingCell, UnclearStep } from '@/server/analysis/types';
-import { formatFabricLength, formatLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
+import type { FabricCell, FitRatingArea, FitRatingCell, UnclearStep } from '@/server/analysis/types';
+import { readerFor } from '@/server/analysis/wording';
+import { formatFabricLength, formatFabricNeed, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 
 function signed(x: number): string {
   const t = x.toFixed(1);
@@ -19,19 +20,33 @@ function fitWord(mean: number): string {
   return 'about right';
 }
 
-/** Fit ratings (−2 … +2) averaged per size and body area; flagged cells listed first with reasons. */
-export function FitRatingsSection({ cells, sizes }: { cells: readonly FitRatingCell[]; sizes: readonly string[] }) {
-  const areas = [...new Set(cells.map((c) => c.area))];
+/** Fit ratings (−2 … +2): areas off across the range or changing with size first, then per-size hints, then the grid. */
+export function FitRatingsSection({ cells, areas, sizes }: { cells: readonly FitRatingCell[]; areas: readonly FitRatingArea[]; sizes: readonly string[] }) {
+  const areaNames = [...new Set(cells.map((c) => c.area))];
   const usedSizes = sizes.filter((s) => cells.some((c) => c.size === s));
   const at = new Map(cells.map((c) => [`${c.area}@${c.size}`, c]));
-  const flagged = cells.filter((c) => c.flagged);
+  const flaggedAreas = areas.filter((a) => a.flag !== null);
+  const marked = cells.filter((c) => c.flagged || c.hint);
   return (
     <Card title="Fit ratings by size and area">
-      <AppText variant="caption">Average rating from −2 (too tight or short) to +2 (too loose or long), with the number of ratings. Cells marked ! are off by a point or more on average with three ratings or more.</AppText>
-      {flagged.length === 0 ? <Empty>No size and area is rated off on average.</Empty> : null}
-      {flagged.map((c) => (
-        <View key={`${c.area}@${c.size}`} style={styles.flag}>
-          <AppText style={styles.strong}>{`! Size ${c.size}, ${c.area}: ${signed(c.mean)} (${fitWord(c.mean)}), ${c.n} ratings`}</AppText>
+      <AppText variant="caption">
+        Average rating from −2 (too tight or short) to +2 (too loose or long), with the number of ratings. An area is flagged when it is off across the
+        whole range or changes with size, checked over every area at once; a single size marked ? is off on average but too few ratings to confirm it.
+      </AppText>
+      {flaggedAreas.length === 0 ? <Empty>No area is rated off across the range or changes with size.</Empty> : null}
+      {flaggedAreas.map((a) => (
+        <View key={a.area} style={styles.flag}>
+          <AppText style={styles.strong}>{`! ${a.area}: ${a.flag === 'whole-range' ? fitWord(a.mean) + ' across the range' : 'changes with size'} (mean ${signed(a.mean)}, ${a.n} ratings)`}</AppText>
+          {a.reasons.map((r) => (
+            <AppText key={r} variant="caption">
+              {r}
+            </AppText>
+          ))}
+        </View>
+      ))}
+      {marked.map((c) => (
+        <View key={`${c.area}@${c.size}`} style={c.flagged ? styles.flag : styles.item}>
+          <AppText style={styles.strong}>{`${c.flagged ? '!' : '?'} Size ${c.size}, ${c.area}: ${signed(c.mean)} (${fitWord(c.mean)}), ${c.n} ratings`}</AppText>
           {c.reasons.map((r) => (
             <AppText key={r} variant="caption">
               {r}
@@ -51,21 +66,22 @@ export function FitRatingsSection({ cells, sizes }: { cells: readonly FitRatingC
               </AppText>
             ))}
           </View>
-          {areas.map((a) => (
+          {areaNames.map((a) => (
             <View key={a} style={styles.tr} role="row">
               <AppText role="rowheader" style={[styles.td, styles.areaCol, styles.strong]}>
                 {a}
               </AppText>
               {usedSizes.map((s) => {
                 const c = at.get(`${a}@${s}`);
+                const mark = c?.flagged ? '! ' : c?.hint ? '? ' : '';
                 return (
                   <AppText
                     key={s}
                     role="cell"
-                    aria-label={c ? `Size ${s}, ${a}: ${signed(c.mean)} from ${c.n} ratings${c.flagged ? ', flagged' : ''}` : `Size ${s}, ${a}: no ratings`}
-                    style={[styles.td, styles.valueCol, c?.flagged && styles.flaggedCell]}
+                    aria-label={c ? `Size ${s}, ${a}: ${signed(c.mean)} from ${c.n} ratings${c.flagged ? ', flagged' : c.hint ? ', a hint, not confirmed' : ''}` : `Size ${s}, ${a}: no ratings`}
+                    style={[styles.td, styles.valueCol, c?.flagged && styles.flaggedCell, c?.hint && styles.hintCell]}
                   >
-                    {c ? `${c.flagged ? '! ' : ''}${signed(c.mean)} (${c.n})` : '–'}
+                    {c ? `${mark}${signed(c.mean)} (${c.n})` : '–'}
                   </AppText>
                 );
               })}
@@ -89,10 +105,10 @@ export function FabricSection({ cells, lengthUnit, fabricUnit }: { cells: readon
       {shown.map((c) => (
         <View key={`${c.size}@${c.widthMm}@${c.napped}`} style={[styles.item, c.flagged && styles.flag]}>
           <AppText style={styles.strong}>
-            {`${c.flagged ? '! ' : ''}Size ${c.size}, ${formatLength(c.widthMm, lengthUnit)} wide${c.napped ? ', one-way layout' : ''}`}
+            {`${c.flagged ? '! ' : ''}Size ${c.size}, ${readerFor(lengthUnit, fabricUnit).width(c.widthMm)} wide${c.napped ? ', one-way layout' : ''}`}
           </AppText>
           <AppText variant="caption">
-            {`Stated need ${c.needMm !== null ? formatFabricLength(c.needMm, fabricUnit) : 'not given'} · median used ${formatFabricLength(c.medianUsedMm, fabricUnit)} · most used ${formatFabricLength(c.maxUsedMm, fabricUnit)} · ${c.overNeed} of ${c.n} used more than stated`}
+            {`Stated need ${c.needMm !== null ? formatFabricNeed(c.needMm, fabricUnit) : 'not given'} · median used ${formatFabricLength(c.medianUsedMm, fabricUnit)} · most used ${formatFabricLength(c.maxUsedMm, fabricUnit)} · ${c.overNeed} of ${c.n} used more than stated`}
           </AppText>
           {c.reasons.map((r) => (
             <AppText key={r} variant="caption">
@@ -137,4 +153,5 @@ const styles = StyleSheet.create({
   areaCol: { width: 88 },
   valueCol: { width: 76, textAlign: 'center' },
   flaggedCell: { backgroundColor: colors.warningSoft, fontFamily: fonts.semibold },
+  hintCell: { backgroundColor: colors.surfaceSunken },
 });

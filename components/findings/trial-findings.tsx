@@ -11,13 +11,14 @@ import { AppText } from '@/components/ui/text';
 import { ToggleChips } from '@/components/ui/toggle-chips';
 import { space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
-import { useFindings, type FindingsResult } from '@/hooks/use-findings';
+import { findingsKeys, useFindings, type FindingsResult } from '@/hooks/use-findings';
 import { useIsWide } from '@/hooks/use-is-wide';
 import { useTrial } from '@/hooks/use-trials';
 import type { FindingClass } from '@/server/analysis/types';
 import { can } from '@/server/domain/policy';
 import type { Role } from '@/server/domain/roles';
 import type { FabricUnit, LengthUnit } from '@/server/domain/units';
+import { ChangeTable } from './change-table';
 import { ComparisonSection } from './comparison-section';
 import { FindingRow } from './finding-row';
 import { HeatGrid } from './heat-grid';
@@ -153,6 +154,8 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit,
         </Card>
       ) : null}
 
+      <ChangeTable draft={result.draft} changes={result.changes ?? []} unit={lengthUnit} csvUrl={`${findingsKeys.base(studioId, trialId)}/changes.csv?draft=${encodeURIComponent(result.draft)}`} />
+
       <ComparisonSection
         key={result.drafts.join(',')}
         drafts={result.drafts}
@@ -169,7 +172,7 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit,
       <View style={[styles.extras, wide && styles.extrasWide]}>
         {result.fitRatings ? (
           <View style={styles.extra}>
-            <FitRatingsSection cells={result.fitRatings} sizes={sizes} />
+            <FitRatingsSection cells={result.fitRatings} areas={result.fitAreas ?? []} sizes={sizes} />
           </View>
         ) : null}
         {result.fabric ? (

@@ -1,15 +1,17 @@
-// The words the findings screens use for the engine's codes: our own plain names.
+// The words the findings screens use for the engine's codes: our own plain names. Kinds are named
+// by the engine's wording (server/analysis/wording.ts), so a reason and a heading read the same.
 import type { ComparisonStatus, Direction, FindingClass } from '@/server/analysis/types';
-import { ALTERATION_KINDS } from '@/server/domain/alterations';
-import { formatLength, type LengthUnit } from '@/server/domain/units';
 import type { TriageState } from '@/hooks/use-findings';
+import { formatLength, type LengthUnit } from '@/server/domain/units';
+
+export { directionLabel, findingName, kindLabel } from '@/server/analysis/wording';
 
 export const CLASS_LABELS: Record<FindingClass, string> = {
   'draft-wide': 'Whole draft',
   grading: 'Grading',
   'size-specific': 'One or a few sizes',
   'personal-fit': 'Personal fit',
-  'too-few-reports': 'Too few reports',
+  'too-few-reports': 'Too few to judge',
   none: 'No pattern problem',
 };
 
@@ -19,7 +21,7 @@ export const CLASS_HINTS: Record<FindingClass, string> = {
   grading: 'The change grows or shrinks with the size: look at the grade rules.',
   'size-specific': 'One or a few sizes stand out from the rest.',
   'personal-fit': 'The amounts follow the testers’ own bodies, not the pattern.',
-  'too-few-reports': 'Too few final reports to tell anything yet.',
+  'too-few-reports': 'Too few testers reported on this draft, or too few made this change, to tell anything yet.',
   none: 'Nothing points at the pattern.',
 };
 
@@ -33,8 +35,10 @@ export function isPatternProblem(c: FindingClass): boolean {
 
 export const STATUS_LABELS: Record<ComparisonStatus, string> = {
   fixed: 'Fixed',
+  improved: 'Improved, not confirmed',
   'still-present': 'Still present',
   'not-enough-data': 'Not enough data',
+  'personal-fit': 'Personal fit, nothing to fix',
 };
 
 export const TRIAGE_LABELS: Record<TriageState, string> = {
@@ -43,24 +47,6 @@ export const TRIAGE_LABELS: Record<TriageState, string> = {
   'personal-fit': 'Personal fit, no change',
   fixed: 'Fixed in a draft',
 };
-
-const KIND_LABELS = new Map(ALTERATION_KINDS.map((k) => [k.key, k.label]));
-
-/** "Leg length" for "leg-length"; a tester's own "other: …" text is kept as they wrote it. */
-export function kindLabel(kind: string): string {
-  const known = KIND_LABELS.get(kind);
-  if (known) return known;
-  if (kind.startsWith('other: ')) return `Other: ${kind.slice('other: '.length)}`;
-  return kind;
-}
-
-export function directionLabel(direction: Direction): string {
-  return direction === 'add' ? 'added' : 'taken out';
-}
-
-export function findingName(f: { kind: string; direction: Direction }): string {
-  return `${kindLabel(f.kind)}, ${directionLabel(f.direction)}`;
-}
 
 export function findingKey(f: { kind: string; direction: Direction }): string {
   return `${f.kind}|${f.direction}`;
@@ -80,14 +66,7 @@ export function pText(p: number | null): string {
   return `p = ${p.toFixed(3)}`;
 }
 
-export function testersText(n: number): string {
-  return n === 1 ? '1 tester' : `${n} testers`;
-}
-
-/**
- * The engine words its reasons in millimetres (server/analysis/wording.ts, "−42.5 mm"); a reader
- * who works in inches or centimetres reads the amounts of a finding's reasons in their own unit.
- */
-export function reasonInUnit(reason: string, unit: LengthUnit): string {
-  return reason.replace(/(−|-)?(\d+(?:\.\d+)?) mm\b/g, (_all, sign: string | undefined, digits: string) => formatLength((sign ? -1 : 1) * Number(digits), unit));
+/** A length in the reader's unit; under an inch, to 1/16 in, where an eighth is too coarse to act on. */
+export function lengthText(mm: number, unit: LengthUnit): string {
+  return formatLength(mm, unit, { sixteenths: Math.abs(mm) < 25.4 }).replace(/^-/, '−');
 }

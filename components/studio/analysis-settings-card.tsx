@@ -16,16 +16,24 @@ type Key = keyof AnalysisSettings;
 
 /** The thresholds a studio may change, in the words of the findings they decide. */
 export const THRESHOLD_LABELS: { key: Key; label: string; hint: string }[] = [
-  { key: 'alpha', label: 'Significance level', hint: 'A test flags a problem when its p-value is below this.' },
-  { key: 'minTestersPerDraft', label: 'Fewest testers for findings', hint: 'Below this many reports on a draft, every finding says “too few reports”.' },
-  { key: 'personalFitMinAbsR', label: 'Personal fit: correlation with the body', hint: 'How closely the amounts must follow the testers’ own measurements (0 to 1).' },
-  { key: 'personalFitMinPairs', label: 'Personal fit: fewest testers', hint: 'Testers with both an amount and a body measurement.' },
-  { key: 'draftWideMinLowerBound', label: 'Whole draft: lowest likely rate', hint: 'The lower end of the 95 % interval of the share of testers who made the change (0 to 1).' },
+  {
+    key: 'alpha',
+    label: 'Error level',
+    hint: 'How often, at most, a finding may be a false alarm. Every test of an alteration is counted together, and the alterations of a draft too, so a trial with nothing wrong shows a finding in well under 1 in 10 trials (measured by npm run -s analyze:calibrate).',
+  },
+  { key: 'minTestersPerDraft', label: 'Fewest testers for findings', hint: 'Below this many reports on a draft, every finding says “too few to judge”.' },
+  { key: 'minMakers', label: 'Fewest testers who made a change', hint: 'A change made by fewer testers than this can never point at the pattern: one body or one sewing choice must not decide it.' },
+  { key: 'gradingMinMakerSizes', label: 'Grading: sizes with a tester who made it', hint: 'A trend with size needs makers in at least this many sizes; one size alone is a standout size, not a trend.' },
+  { key: 'personalFitMinAbsR', label: 'Personal fit: correlation with the body', hint: 'How closely the changes must follow the testers’ own measurements (0 to 1).' },
+  { key: 'personalFitMinPairs', label: 'Personal fit: fewest testers', hint: 'Testers whose body measurement for the change is known.' },
+  { key: 'draftWideMinLowerBound', label: 'Whole draft: rate to exceed', hint: 'The share of testers making the change must be shown to be above this (0 to 1).' },
   { key: 'draftWideMinDirectionShare', label: 'Whole draft: share in one direction', hint: 'Of the testers who made the change, the share who made it the same way (0 to 1).' },
   { key: 'sizeSpecificMinCount', label: 'One size: fewest testers who made it', hint: 'A size stands out only if at least this many of its testers made the change.' },
   { key: 'compareMinTesters', label: 'Draft comparison: fewest testers in the later draft', hint: 'Fewer reports say “not enough data yet”.' },
-  { key: 'fitFlagMinAbsMean', label: 'Fit ratings: flag an average beyond', hint: 'On the −2 … +2 scale.' },
-  { key: 'fabricShortShare', label: 'Fabric: share of testers who needed more', hint: 'Flag a size when at least this share used more than the stated length (0 to 1).' },
+  { key: 'fitFlagMinAbsMean', label: 'Fit ratings: a size is off beyond', hint: 'On the −2 … +2 scale; with few ratings it is a hint to look at, confirmed only with enough of them.' },
+  { key: 'fitAreaMinAbsMean', label: 'Fit ratings: an area is off across the range beyond', hint: 'On the −2 … +2 scale, the mean over every size.' },
+  { key: 'fabricShortShare', label: 'Fabric: share of testers who needed more', hint: 'Flag a size when more than this share used more than the stated length (0 to 1).' },
+  { key: 'fabricMinOver', label: 'Fabric: fewest testers who needed more', hint: 'One generous cutter is not a short yardage.' },
   { key: 'unclearStepMinTesters', label: 'Instructions: testers who found a step unclear', hint: 'Flag a step named by at least this many testers.' },
 ];
 

@@ -11,6 +11,8 @@ const count = (min: number, max: number) => z.number({ error: 'must be a whole n
 const ANALYSIS_SHAPE = {
     alpha: z.number({ error: 'must be a significance level such as 0.05' }).gt(0, 'must be above 0').max(0.2, 'must be at most 0.2'),
     minTestersPerDraft: count(2, 50),
+    minMakers: count(2, 50),
+    gradingMinMakerSizes: count(2, 20),
     personalFitMinAbsR: share('a correlation'),
     personalFitMinPairs: count(3, 100),
     draftWideMinLowerBound: share('a rate'),
@@ -18,7 +20,9 @@ const ANALYSIS_SHAPE = {
     sizeSpecificMinCount: count(1, 50),
     compareMinTesters: count(2, 50),
     fitFlagMinAbsMean: z.number({ error: 'must be a rating between 0 and 2' }).min(0).max(2, 'must be at most 2'),
+    fitAreaMinAbsMean: z.number({ error: 'must be a rating between 0 and 2' }).min(0).max(2, 'must be at most 2'),
     fabricShortShare: share('a share'),
+    fabricMinOver: count(1, 50),
     unclearStepMinTesters: count(1, 50),
 };
 export const analysisSettingsSchema = z.object(ANALYSIS_SHAPE).partial();

@@ -5,7 +5,7 @@ import { findingNoteSchema, otherMappingSchema, triageSchema } from '../domain/s
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { loadTrial } from '../trials/trials.service';
-import { addFindingNote, findingsFor, mapOtherAlteration, otherAlterations, triageFinding } from './findings.service';
+import { addFindingNote, changesCsv, findingsFor, mapOtherAlteration, otherAlterations, triageFinding } from './findings.service';
 
 const findingsQuery = z.object({
   draft: z.string().regex(/^\d+$/, 'is a draft number').optional(),
@@ -24,7 +24,13 @@ export function findingsRouter(): Router {
 
   router.get('/findings', read, trial, validate({ query: findingsQuery }), async (req, res) => {
     const q = res.locals.query as z.output<typeof findingsQuery>;
-    res.json(await findingsFor(await load(req, res), { draft: q.draft, compare: q.compare ? (q.compare.split(',') as [string, string]) : undefined }));
+    res.json(await findingsFor(await load(req, res), { draft: q.draft, compare: q.compare ? (q.compare.split(',') as [string, string]) : undefined }, res.locals.user!));
+  });
+  // The next-draft change table (findings triaged "will fix"), for a spreadsheet.
+  router.get('/findings/changes.csv', read, trial, validate({ query: findingsQuery.pick({ draft: true }) }), async (req, res) => {
+    const q = res.locals.query as { draft?: string };
+    const found = await load(req, res);
+    res.type('text/csv').attachment(`${found.slug}-draft-changes.csv`).send(await changesCsv(found, q.draft, res.locals.user!));
   });
   router.put('/findings/triage', triage, trial, validate({ body: triageSchema }), async (req, res) => {
     res.json(await triageFinding(await load(req, res), res.locals.user!, res.locals.body));

@@ -14,8 +14,9 @@ import {
   type Trial,
   User,
 } from '../../db/models';
-import { AnalysisRequestError, listDrafts, runAnalysis, type AnalysisInput } from '../analysis';
-import type { AnalysisOutput } from '../analysis/types';
+import Papa from 'papaparse';
+import { AnalysisRequestError, changeTable, findingName, listDrafts, readerFor, renderOutput, runAnalysis, type AnalysisInput } from '../analysis';
+import type { AnalysisOutput, ChangeRow } from '../analysis/types';
 import { ALTERATION_KINDS, alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { otherTextKey, type findingNoteSchema, type otherMappingSchema, type triageSchema } from '../domain/schemas/findings';
@@ -24,6 +25,12 @@ import { badRequest } from '../errors';
 import type { Thresholds } from '../analysis/thresholds';
 
 const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement]));
+
+/**
+ * Bumped whenever the engine's rules or output change, so stored snapshots from an older engine
+ * are computed again rather than served.
+ */
+const ENGINE_VERSION = 2;
 
 /** How a coordinator read each "other" alteration of a trial: its words (as otherTextKey) → kind. */
 export async function otherMappingsOf(trialId: string): Promise<Map<string, string>> {
@@ -72,7 +79,12 @@ export async function analysisInputFor(trial: Trial): Promise<AnalysisInput> {
     const body = ((e as Enrollment & { application?: Application }).application?.profileSnapshot.measurementsMm ?? {}) as Record<string, number>;
     for (const report of reportsPerDraft((e as Enrollment & { reports?: Report[] }).reports ?? [])) {
       const c = report.content;
+      // The tester's own difference from the chart for every kind that answers to a measurement,
+      // whether or not they made it: personal fit compares those who changed nothing too.
       const bodyDeltaMm: Record<string, number> = {};
+      for (const [kind, m] of MEASUREMENT_OF) {
+        if (m && typeof body[m] === 'number' && typeof size.bodyMm[m] === 'number') bodyDeltaMm[kind] = body[m] - size.bodyMm[m];
+      }
       for (const a of c.alterations ?? []) {
         const kind = kindOf(a);
         const m = MEASUREMENT_OF.get(kind);
@@ -103,7 +115,7 @@ const keyOf = (f: FindingKey) => `${f.direction}\u0000${f.kind}`;
 
 /** Same input, same thresholds → same findings: the snapshot is reused while this hash holds. */
 function sourceHash(input: AnalysisInput, thresholds: Thresholds): string {
-  return createHash('sha256').update(JSON.stringify({ input, thresholds })).digest('hex');
+  return createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, input, thresholds })).digest('hex');
 }
 
 async function thresholdsOf(trial: Trial): Promise<Thresholds> {
@@ -180,12 +192,16 @@ function serializeNote(n: FindingNote) {
   return { id: n.id, author: (n as FindingNote & { author?: User | null }).author?.name ?? 'A former member', body: n.body, createdAt: n.createdAt };
 }
 
+/** How a person reads lengths: their own units. */
+export type ReaderUnits = { lengthUnit: 'in' | 'cm'; fabricUnit: 'yd' | 'm' };
+
 /**
  * Findings of one draft (default: the latest with reports) from the stored snapshot, computed
  * again first if the reports or the thresholds changed since; optionally compared with another
- * draft. Every finding carries the studio's triage state and notes.
+ * draft. Every finding carries the studio's triage state and notes; the findings the studio will
+ * fix get the change table. Reasons are written in the reader's units.
  */
-export async function findingsFor(trial: Trial, options: { draft?: string; compare?: [string, string] }) {
+export async function findingsFor(trial: Trial, options: { draft?: string; compare?: [string, string] }, units: ReaderUnits) {
   const input = await analysisInputFor(trial);
   if (input.reports.length === 0) return { input: { testers: 0 }, result: null, snapshot: null };
   const thresholds = await thresholdsOf(trial);
@@ -199,9 +215,42 @@ export async function findingsFor(trial: Trial, options: { draft?: string; compa
   const draft = options.draft ?? options.compare?.[0] ?? drafts[drafts.length - 1];
   const snapshot = await snapshotOf(trial, input, thresholds, sourceHash(input, thresholds), draft);
   const decisions = await decisionsOf(trial.id);
-  const result: AnalysisOutput = { ...snapshot.result, drafts, findings: snapshot.result.findings.map((f) => ({ ...f, ...decisions.of(f) })) };
+  const findings = snapshot.result.findings.map((f) => ({ ...f, ...decisions.of(f) }));
+  const willFix = findings.filter((f) => f.triage.state === 'will-fix').map((f) => ({ kind: f.kind, direction: f.direction }));
+  const result: AnalysisOutput = { ...snapshot.result, drafts, findings, changes: changeTable(input, draft, snapshot.result.findings, willFix, thresholds) };
   if (options.compare) result.comparison = analyse(input, { compare: options.compare }, thresholds).comparison;
-  return { input: { testers: input.reports.length }, result, snapshot: { draft: snapshot.draft, computedAt: snapshot.computedAt, thresholds } };
+  return {
+    input: { testers: input.reports.length },
+    result: renderOutput(result, readerFor(units.lengthUnit, units.fabricUnit)),
+    snapshot: { draft: snapshot.draft, computedAt: snapshot.computedAt, thresholds },
+  };
+}
+
+/**
+ * The change table of one draft as CSV, for the grader's spreadsheet: one row per finding the
+ * studio will fix and size, the change in the reader's unit beside the exact millimetres.
+ */
+export async function changesCsv(trial: Trial, draftAsked: string | undefined, units: ReaderUnits): Promise<string> {
+  const { result } = await findingsFor(trial, { draft: draftAsked }, units);
+  const reader = readerFor(units.lengthUnit, units.fabricUnit);
+  const rows = (result?.changes ?? []).map((c: ChangeRow) => ({
+    draft: result?.draft ?? '',
+    finding: findingName(c),
+    class: c.class,
+    size: c.size,
+    change: c.amountMm === null ? '' : reader.fine(c.amountMm),
+    from: c.interval ? reader.fine(c.interval[0]) : '',
+    to: c.interval ? reader.fine(c.interval[1]) : '',
+    change_mm: c.amountMm === null ? '' : Math.round(c.amountMm * 10) / 10,
+    from_mm: c.interval ? Math.round(c.interval[0] * 10) / 10 : '',
+    to_mm: c.interval ? Math.round(c.interval[1] * 10) / 10 : '',
+    basis: c.basis,
+    extrapolated: c.extrapolated ? 'yes' : 'no',
+    note: c.note,
+  }));
+  const fields = ['draft', 'finding', 'class', 'size', 'change', 'from', 'to', 'change_mm', 'from_mm', 'to_mm', 'basis', 'extrapolated', 'note'];
+  // A tester's own words can name an "other" alteration: never let a cell start a formula.
+  return Papa.unparse({ fields, data: rows.map((r) => fields.map((f) => r[f as keyof typeof r])) }, { newline: '\r\n', escapeFormulae: true });
 }
 
 /** Sets the studio's decision on a finding; returns its triage and notes. */

@@ -1,10 +1,10 @@
 import { useLocalSearchParams } from 'expo-router';
+import { FindingsSummary } from '@/components/findings/findings-summary';
 import { OutboxPanel } from '@/components/mail/outbox-panel';
 import { PhotoWall } from '@/components/photos/photo-wall';
 import { ApplicantsPanel } from '@/components/trials/applicants-panel';
 import { CallEditor } from '@/components/trials/call-editor';
 import { TargetsEditor } from '@/components/trials/targets-editor';
-import { FindingsPanel } from '@/components/trials/findings-panel';
 import { ReportsPanel } from '@/components/trials/reports-panel';
 import { TestersPanel } from '@/components/trials/testers-panel';
 import { ButtonLink } from '@/components/ui/button-link';
@@ -38,8 +38,7 @@ export default function TrialScreen() {
       {can(currentStudio.role, 'applicants.manage') ? <ApplicantsPanel studioId={currentStudio.id} trialId={trial.id} unit={session.user.lengthUnit} /> : null}
       <ReportsPanel studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} fabricUnit={session.user.fabricUnit} canMap={can(currentStudio.role, 'alterations.map')} />
       <PhotoWall studioId={currentStudio.id} trialId={trial.id} />
-      <FindingsPanel studioId={currentStudio.id} trialId={trial.id} />
-      <ButtonLink href={{ pathname: '/findings/[trialId]', params: { trialId: trial.id } }} label="Open the findings" tone="quiet" />
+      <FindingsSummary studioId={currentStudio.id} trialId={trial.id} role={currentStudio.role} lengthUnit={session.user.lengthUnit} />
       {can(currentStudio.role, 'applicants.manage') ? <TestersPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
       {can(currentStudio.role, 'applicants.manage') ? <OutboxPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
     </Screen>
