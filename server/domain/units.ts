@@ -354,3 +354,27 @@ export function formatFabricLength(mm: number, unit: FabricUnit): string {
   const abs = Math.abs(cm);
   return `${signed(cm, `${Math.floor(abs / 100)}.${String(abs % 100).padStart(2, '0')}`)} m`;
 }
+
+/**
+ * Rounds up to a whole number of steps, after cutting float noise at 9 decimals so an exact
+ * eighth (2286 mm = 2 1/2 yd: 2286 / 914.4 × 8 = 20.000000000000004) is not pushed a step up.
+ */
+function ceilSteps(x: number): number {
+  return unsignedZero(Math.ceil(Number(x.toFixed(9))));
+}
+
+/**
+ * Shows a stated fabric NEED (how much to buy): yards rounded UP to the next 1/8 yd, metres UP to
+ * the next centimetre, so the length shown is never less than the need (2300 mm is 2 5/8 yd,
+ * not the 2 1/2 yd = 2286 mm that nearest rounding gives). Fabric is sold in eighths of a yard or
+ * by the centimetre (common practice). A length already used or measured is shown to the nearest
+ * step with formatFabricLength instead. Needs are never negative; the output is accepted by
+ * parseFabricLength.
+ */
+export function formatFabricNeed(mm: number, unit: FabricUnit): string {
+  if (!Number.isFinite(mm)) return '';
+  const need = Math.max(0, mm);
+  if (unit === 'yd') return `${mixedFraction(ceilSteps((need / MM_PER_YARD) * 8), 8)} yd`;
+  const cm = ceilSteps(need / MM_PER_CM);
+  return `${Math.floor(cm / 100)}.${String(cm % 100).padStart(2, '0')} m`;
+}

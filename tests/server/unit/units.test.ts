@@ -10,6 +10,7 @@ import {
 } from '../../../server/domain/measurements';
 import {
   formatFabricLength,
+  formatFabricNeed,
   formatLength,
   inchesToMm,
   metresToMm,
@@ -265,6 +266,54 @@ describe('fabric lengths', () => {
     [57.15, 'yd', '1/8 yd'],
   ])('%f mm in %s → %j', (mm, unit, text) => {
     expect(formatFabricLength(mm, unit)).toBe(text);
+  });
+});
+
+describe('a stated fabric need is shown rounded up, never short', () => {
+  // By hand on the exact definitions (1 yd = 914.4 mm, so 1/8 yd = 114.3 mm; 1 cm = 10 mm).
+  it.each<[number, FabricUnit, string]>([
+    // 2300 / 114.3 = 20.12 eighths → 21 eighths = 2 5/8 yd = 2400.3 mm; the nearest eighth,
+    // 2 1/2 yd = 20 × 114.3 = 2286 mm, would be 14 mm short.
+    [2300, 'yd', '2 5/8 yd'],
+    // exactly 20 eighths stays 2 1/2 yd (float noise does not push it a step up)
+    [2286, 'yd', '2 1/2 yd'],
+    [2286.01, 'yd', '2 5/8 yd'],
+    // 18 × 114.3 = 2057.4 mm, exact
+    [2057.4, 'yd', '2 1/4 yd'],
+    [914.4, 'yd', '1 yd'],
+    [1, 'yd', '1/8 yd'],
+    [0, 'yd', '0 yd'],
+    [2300, 'm', '2.30 m'],
+    // 230.04 cm → 231 cm, never 2.30 m
+    [2300.4, 'm', '2.31 m'],
+    [2299.6, 'm', '2.30 m'],
+    // 205.74 cm → 206 cm (nearest rounding happens to agree here)
+    [2057.4, 'm', '2.06 m'],
+    [0, 'm', '0.00 m'],
+  ])('%f mm in %s → %j', (mm, unit, text) => {
+    expect(formatFabricNeed(mm, unit)).toBe(text);
+  });
+
+  it('differs from the nearest-step display exactly where nearest rounding would be short', () => {
+    expect(formatFabricLength(2300, 'yd')).toBe('2 1/2 yd');
+    expect(formatFabricNeed(2300, 'yd')).toBe('2 5/8 yd');
+  });
+
+  it('for needs from 0 to 49 m, reads back at or above the need and less than one step above it', () => {
+    // One step: 1/8 yd = 114.3 mm or 1 cm = 10 mm (by hand). A hair of float slack.
+    const step = { yd: 914.4 / 8, m: 10 };
+    const slack = 1e-6;
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 49_000, noNaN: true }), fc.constantFrom<FabricUnit>('yd', 'm'), (mm, unit) => {
+        const shown = formatFabricNeed(mm, unit);
+        const back = mmOf(parseFabricLength(shown, unit));
+        expect(back).toBeGreaterThanOrEqual(mm - slack);
+        expect(back - mm).toBeLessThan(step[unit] + slack);
+        // Showing what was read back shows the same text (it is already a whole step).
+        expect(formatFabricNeed(back, unit)).toBe(shown);
+      }),
+      { numRuns: 500 },
+    );
   });
 });
 
