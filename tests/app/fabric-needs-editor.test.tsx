@@ -11,6 +11,7 @@ const pattern: PatternDetail = {
   id: 'p1',
   name: 'Corduroy trousers',
   category: 'trousers',
+  childrensWear: false,
   fabricKind: 'woven',
   minStretchPct: null,
   archived: false,

@@ -90,16 +90,58 @@ describe('patterns and size charts in Chromium', () => {
     expect(h.errors).toEqual([]);
   });
 
-  it('on a phone the chart is edited one size at a time, and children’s wear shows its safety cautions', async () => {
+  it('on a phone the chart is edited one size at a time, and a children’s hoodie filed as a top gets the children’s cautions', async () => {
     const studio = await createStudio('Kids Studio');
     const owner = await createUser('kids-owner');
     await addMember(studio, owner, 'owner');
     const t = h.t;
+    // Filed as a top, sizes 4 and 6 (the same numbers as misses' sizes): nothing says "children" yet.
     const created = await request(t.app)
       .post(`/api/studios/${studio.id}/patterns`)
       .set({ Authorization: bearer(owner, t.config) })
-      .send({ name: 'Hooded jacket', category: 'childrens-wear', fabricKind: 'woven' })
+      .send({ name: 'Hooded jacket', category: 'top', fabricKind: 'woven' })
       .expect(201);
+    await request(t.app)
+      .put(`/api/studios/${studio.id}/patterns/${created.body.id}/chart`)
+      .set({ Authorization: bearer(owner, t.config) })
+      .send({
+        draftedHeightMm: null,
+        bodyColumns: ['bust'],
+        finishedColumns: [],
+        sizes: [
+          { label: '4', bodyMm: { bust: 560 } },
+          { label: '6', bodyMm: { bust: 600 } },
+        ],
+        variants: [],
+      })
+      .expect(200);
+
+    const context = await signedIn(h, owner.email);
+    const page = await h.newPage(context, PHONE);
+    await page.goto(`/patterns/${created.body.id}`);
+    await page.getByRole('heading', { name: 'Hooded jacket' }).waitFor();
+    await page.getByText('Care notes for the instructions').waitFor();
+    await page.getByText(/Made for children\? Marking it so/).waitFor();
+    expect(await page.getByText(/ASTM F1816-18/).count()).toBe(0);
+
+    // The designer marks it as made for children: the drawstring caution shows, with the reason.
+    await page.getByRole('radiogroup', { name: 'Made for children' }).getByRole('radio', { name: 'Yes, in children’s sizes' }).click();
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await page.getByText('Details saved.').waitFor();
+    await page.getByText('Safety cautions for this garment').waitFor();
+    await page.getByText('The children’s cautions show because the pattern is marked as made for children.').waitFor();
+    await page.getByText(/ASTM F1816-18/).first().waitFor();
+    await page.getByText(/exempts \(16 CFR 1501\.3\)/).waitFor();
+    await page.getByText('Safety cautions for this garment').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-phone.png') });
+    await page.getByText(/exempts \(16 CFR 1501\.3\)/).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-small-parts-phone.png') });
+    const wide = await h.newPage(context, WIDE);
+    await wide.goto(`/patterns/${created.body.id}`);
+    await wide.getByText('Safety cautions for this garment').waitFor();
+    await wide.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-wide.png') });
+
+    // A height under 150 cm in the chart is a reason too.
     await request(t.app)
       .put(`/api/studios/${studio.id}/patterns/${created.body.id}/chart`)
       .set({ Authorization: bearer(owner, t.config) })
@@ -114,13 +156,8 @@ describe('patterns and size charts in Chromium', () => {
         variants: [],
       })
       .expect(200);
-
-    const context = await signedIn(h, owner.email);
-    const page = await h.newPage(context, PHONE);
-    await page.goto(`/patterns/${created.body.id}`);
-    await page.getByRole('heading', { name: 'Hooded jacket' }).waitFor();
-    await page.getByText('Safety cautions for this garment').waitFor();
-    await page.getByText(/ASTM F1816-18/).first().waitFor();
+    await page.reload();
+    await page.getByText(/and the chart gives a height under 59 in for sizes 4, 6\./).waitFor();
 
     const sizePicker = page.getByRole('radiogroup', { name: 'Body: size' });
     await sizePicker.getByRole('radio', { name: '6' }).click();

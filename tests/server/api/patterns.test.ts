@@ -50,6 +50,33 @@ describe('patterns and size charts', () => {
     expect(Object.keys(bad.body.error.fields).sort()).toEqual(['category', 'fabricKind', 'name']);
   });
 
+  it('keeps the “made for children” flag: false unless given, changed by PATCH, refused when not true or false', async () => {
+    const plain = await newPattern({ name: 'Hoodie', category: 'top' });
+    expect((await request(t.app).get(`${base}/${plain.id}`).set(as('grader'))).body.childrensWear).toBe(false);
+    const kids = await request(t.app).post(base).set(as('coordinator')).send({ name: 'Kids hoodie', category: 'jacket', fabricKind: 'woven', childrensWear: true });
+    expect(kids.status).toBe(201);
+    expect(kids.body.childrensWear).toBe(true);
+    const changed = await request(t.app).patch(`${base}/${plain.id}`).set(as('coordinator')).send({ childrensWear: true });
+    expect(changed.status).toBe(200);
+    expect(changed.body.childrensWear).toBe(true);
+    const listed = await request(t.app).get(base).set(as('grader'));
+    expect(listed.body.find((x: { id: string }) => x.id === plain.id).childrensWear).toBe(true);
+    const bad = await request(t.app).patch(`${base}/${plain.id}`).set(as('coordinator')).send({ childrensWear: 'yes' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toEqual({ childrensWear: 'must be true or false' });
+  });
+
+  it('a change that leaves fields out keeps them: archiving keeps the notes, a knit’s stretch and the children’s flag', async () => {
+    const p = await request(t.app)
+      .post(base)
+      .set(as('coordinator'))
+      .send({ name: 'Kids tee', category: 'top', fabricKind: 'knit', minStretchPct: 40, notes: 'Fit notes kept', childrensWear: true });
+    expect(p.status).toBe(201);
+    const archived = await request(t.app).patch(`${base}/${p.body.id}`).set(as('owner')).send({ archived: true });
+    expect(archived.status).toBe(200);
+    expect(archived.body).toMatchObject({ archived: true, minStretchPct: 40, notes: 'Fit notes kept', childrensWear: true });
+  });
+
   it('archives a pattern out of the list and back', async () => {
     const p = await newPattern({ name: 'Archived skirt', category: 'skirt' });
     await request(t.app).patch(`${base}/${p.id}`).set(as('owner')).send({ archived: true }).expect(200);
