@@ -187,7 +187,7 @@ export type PatternForCautions = {
 };
 
 /**
- * Below this body height a size is a child's. Adult size charts rarely list a height under 150 cm
+ * Below this body height a size is a child's (tests/reference/SOURCES.md §7.2). Adult size charts rarely list a height under 150 cm
  * (short adult ranges are commonly drafted for about 152–160 cm), while the US children's sizes up
  * to 12 stay under it; common practice, not a standard. EN 14682 counts children up to 14 years
  * (176 cm), so a chart of older children's sizes needs the designer's flag.

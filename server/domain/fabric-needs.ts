@@ -35,7 +35,8 @@ const widthKey = (cell: NeedCell) => `${cell.sizeKey}|${Math.round(cell.widthMm)
  * A one-way (napped) need below the plain need for the same size and width. A one-way layout is
  * one of the layouts the plain need may use, with every piece the same way up, so it can never
  * take less fabric than the best free layout: such a pair is a typing mistake (often the two
- * columns swapped). Returns one problem per napped cell, worded in the reader's units.
+ * columns swapped; tests/reference/SOURCES.md §5.3). Returns one problem per napped cell,
+ * worded in the reader's units.
  */
 export function nappedBelowPlain(cells: readonly NeedCell[], units: { lengthUnit: LengthUnit; fabricUnit: FabricUnit }): NeedProblem[] {
   const plain = new Map<string, number>();

@@ -4,7 +4,7 @@
  * Pure on purpose: no Node imports, because the app bundles this file too and both ends must read
  * "1 3/8" the same way.
  *
- * Exact definitions (trade-facts §5, the international yard and pound agreement of 1959):
+ * Exact definitions (tests/reference/SOURCES.md §5, the international yard and pound agreement of 1959):
  * 1 in = 25.4 mm and 1 yd = 0.9144 m.
  */
 
@@ -106,7 +106,7 @@ const MM_PER: Record<UnitWord, number> = {
   yd: MM_PER_YARD,
 };
 
-/** Unicode vulgar fractions in eighths, as printed charts (and trade-facts §1) write them. */
+/** Unicode vulgar fractions in eighths, as printed charts write them (SOURCES.md §1.1). */
 const VULGAR: Record<string, string> = {
   '⅛': '1/8',
   '¼': '1/4',
@@ -367,7 +367,7 @@ function ceilSteps(x: number): number {
  * Shows a stated fabric NEED (how much to buy): yards rounded UP to the next 1/8 yd, metres UP to
  * the next centimetre, so the length shown is never less than the need (2300 mm is 2 5/8 yd,
  * not the 2 1/2 yd = 2286 mm that nearest rounding gives). Fabric is sold in eighths of a yard or
- * by the centimetre (common practice). A length already used or measured is shown to the nearest
+ * by the centimetre (common practice, tests/reference/SOURCES.md §5.3). A length already used or measured is shown to the nearest
  * step with formatFabricLength instead. Needs are never negative; the output is accepted by
  * parseFabricLength.
  */

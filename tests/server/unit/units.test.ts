@@ -1,6 +1,6 @@
 // Lengths typed, stored and shown. Check values name their source beside them: the exact
-// definitions are those of the international yard and pound agreement of 1959 (trade-facts §5);
-// [CALC] = recomputed in trade-facts §5; "by hand" = exact arithmetic on those definitions, shown.
+// definitions are those of the international yard and pound agreement of 1959 (SOURCES.md §5);
+// [CALC] = calculated in tests/reference/SOURCES.md §5; "by hand" = exact arithmetic on those definitions, shown.
 import * as fc from 'fast-check';
 import {
   checkMeasurement,
@@ -47,7 +47,7 @@ describe('the exact definitions', () => {
     expect(mmOf(parseFabricLength('36 in', 'm'))).toBeCloseTo(914.4, 9);
   });
 
-  it('60 in = 152.4 cm, 54 in = 137.16 cm, 45 in = 114.3 cm (fabric widths, trade-facts §5 [CALC])', () => {
+  it('60 in = 152.4 cm, 54 in = 137.16 cm, 45 in = 114.3 cm (fabric widths, SOURCES.md §5 [CALC])', () => {
     expect(mmToCm(mmOf(parseLength('60 in', 'cm')))).toBeCloseTo(152.4, 9);
     expect(mmToCm(mmOf(parseLength('54"', 'cm')))).toBeCloseTo(137.16, 9);
     expect(mmToCm(mmOf(parseLength('45 inches', 'cm')))).toBeCloseTo(114.3, 9);
@@ -55,7 +55,7 @@ describe('the exact definitions', () => {
     expect(formatLength(1524, 'in')).toBe('60 in');
   });
 
-  it('5/8 in = 15.875 mm, which is not the 15 mm of a 1.5 cm seam allowance (trade-facts §5 [CALC])', () => {
+  it('5/8 in = 15.875 mm, which is not the 15 mm of a 1.5 cm seam allowance (SOURCES.md §5 [CALC])', () => {
     const fiveEighths = mmOf(parseLength('5/8"', 'cm'));
     expect(fiveEighths).toBeCloseTo(15.875, 9);
     expect(Math.abs(fiveEighths - 15)).toBeGreaterThan(0.8);
@@ -83,7 +83,7 @@ describe('parseLength accepts the forms of DESIGN.md "Units"', () => {
     ['1 3/8 Inch', 'cm', 34.925],
     ['1 3 / 8 in.', 'cm', 34.925],
     ['  1   3/8  ', 'in', 34.925],
-    // Printed-chart glyphs and typographic inch marks (trade-facts §1 writes 38¾).
+    // Printed-chart glyphs and typographic inch marks (printed charts write 38¾, SOURCES.md §1.1).
     ['1⅜', 'in', 34.925],
     ['1 ⅜″', 'cm', 34.925],
     ['1.375”', 'cm', 34.925],
@@ -365,7 +365,7 @@ describe('format then parse gives the value back within half the display step', 
 });
 
 describe('the measurement vocabulary', () => {
-  it('has the survey keys of trade-facts §3, each with a label, a hint and a sensible range', () => {
+  it('has the survey keys of SOURCES.md §3, each with a label, a hint and a sensible range', () => {
     expect([...MEASUREMENT_KEYS].sort()).toEqual(
       [
         'bust', 'high_bust', 'under_bust', 'waist', 'high_hip', 'hip', 'thigh', 'knee', 'calf', 'height',
@@ -382,9 +382,9 @@ describe('the measurement vocabulary', () => {
     }
   });
 
-  it('admits every body of the charts in trade-facts §1 and refuses a hip of 30 mm', () => {
-    // ASTM D5585-11e1 size 00 bust 31 1/8 in and size 20 bust 46 in (trade-facts §1 [SRC]);
-    // Aldrich-attributed hip 84–127 cm (trade-facts §1 [2nd]).
+  it('admits every body of the charts in SOURCES.md §1 and refuses a hip of 30 mm', () => {
+    // ASTM D5585-11e1 size 00 bust 31 1/8 in and size 20 bust 46 in (SOURCES.md §1 [SRC]);
+    // Aldrich-attributed hip 84–127 cm (SOURCES.md §1 [2nd]).
     expect(checkMeasurement('bust', inchesToMm(31.125))).toBeNull();
     expect(checkMeasurement('bust', inchesToMm(46))).toBeNull();
     expect(checkMeasurement('hip', 840)).toBeNull();
