@@ -159,6 +159,40 @@ describe('patterns and size charts in Chromium', () => {
     await page.reload();
     await page.getByText(/and the chart gives a height under 59 in for sizes 4, 6\./).waitFor();
 
+    // Fabric needs on the phone: a one-way length below the plain one is marked on its cell and not saved.
+    const plain = page.getByLabel('Fabric 45 in wide, size 4');
+    await plain.fill('2 1/2');
+    await plain.blur();
+    const oneWay = page.getByLabel('Fabric 45 in, one way, size 4');
+    await oneWay.fill('2 1/4');
+    await oneWay.blur();
+    await page.getByText('Fabric 45 in, one way, size 4: is below the 2 1/2 yd stated without a one-way layout').waitFor();
+    await page.getByRole('button', { name: 'Save fabric needs' }).click();
+    await page.getByText('Not saved: correct the one-way lengths marked in the table first.').waitFor();
+    await oneWay.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'fabric-needs-refused-phone.png') });
+    // 2.3 m is 2300 mm: shown as 2 5/8 yd (rounded up), never 2 1/2 yd.
+    await oneWay.fill('2.3 m');
+    await oneWay.blur();
+    expect(await oneWay.inputValue()).toBe('2 5/8 yd');
+    await page.getByRole('button', { name: 'Save fabric needs' }).click();
+    await page.getByText('Fabric needs saved.').waitFor();
+    await page.reload();
+    await page.getByRole('heading', { name: 'Hooded jacket' }).waitFor();
+    expect(await page.getByLabel('Fabric 45 in, one way, size 4').inputValue()).toBe('2 5/8 yd');
+
+    // The same rule in the full grid on a wide screen.
+    await wide.reload();
+    const widePlain = wide.getByLabel('Fabric 45 in wide, size 6');
+    await widePlain.fill('2');
+    await widePlain.blur();
+    const wideOneWay = wide.getByLabel('Fabric 45 in, one way, size 6');
+    await wideOneWay.fill('1 7/8');
+    await wideOneWay.blur();
+    await wide.getByText('Fabric 45 in, one way, size 6: is below the 2 yd stated without a one-way layout').waitFor();
+    await wide.getByRole('button', { name: 'Save fabric needs' }).scrollIntoViewIfNeeded();
+    await wide.screenshot({ path: path.join(SCREENSHOT_DIR, 'fabric-needs-refused-wide.png') });
+
     const sizePicker = page.getByRole('radiogroup', { name: 'Body: size' });
     await sizePicker.getByRole('radio', { name: '6' }).click();
     expect(await page.getByLabel('Body height, size 6').count()).toBe(1);
