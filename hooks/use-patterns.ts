@@ -6,6 +6,7 @@ export type PatternSummary = {
   id: string;
   name: string;
   category: string;
+  childrensWear: boolean;
   fabricKind: string;
   minStretchPct: number | null;
   archived: boolean;

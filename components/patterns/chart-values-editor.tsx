@@ -22,13 +22,15 @@ type Props = {
   parse?: (text: string) => ParseResult;
   format?: (mm: number) => string;
   unitLabel?: string;
+  /** Messages for single cells, by row key then column key (e.g. a refusal naming the cell). */
+  errors?: Record<string, Record<string, string>>;
 };
 
 /**
  * Lengths per size and column: a full grid on a wide window, one size at a time on a phone.
  * Every cell is a measurement field, named "Hip, size 12" for assistive technology.
  */
-export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChange, parse, format, unitLabel }: Props) {
+export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChange, parse, format, unitLabel, errors }: Props) {
   const wide = useIsWide();
   const [current, setCurrent] = useState<string | null>(rows[0]?.key ?? null);
   if (columns.length === 0) return <AppText variant="caption">Choose the measurements of this chart first.</AppText>;
@@ -44,6 +46,7 @@ export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChan
       parse={parse}
       format={format}
       valueMm={row.values[col.key] ?? null}
+      error={errors?.[row.key]?.[col.key]}
       readOnly={readOnly}
       onChangeMm={(mm) => onChange(row.key, col.key, mm)}
     />

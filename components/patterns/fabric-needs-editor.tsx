@@ -7,7 +7,8 @@ import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
 import { ApiError } from '@/hooks/api';
 import { saveFabricNeeds, type PatternDetail } from '@/hooks/use-patterns';
-import { formatFabricLength, formatLength, parseFabricLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
+import { nappedBelowPlain } from '@/server/domain/fabric-needs';
+import { formatFabricNeed, formatLength, parseFabricLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 import { ChartValuesEditor } from './chart-values-editor';
 
 type Props = { studioId: string; pattern: PatternDetail; lengthUnit: LengthUnit; fabricUnit: FabricUnit; canEdit: boolean };
@@ -32,6 +33,8 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   const [newWidth, setNewWidth] = useState<number | null>(null);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
+  // The server's refusals of single cells, by size id then column; cleared when that cell changes.
+  const [refused, setRefused] = useState<Record<string, Record<string, string>>>({});
 
   const columns = widths.flatMap((w) => [
     { key: columnKey(w, false), label: `${formatLength(w, lengthUnit)} wide` },
@@ -39,21 +42,50 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   ]);
   const rows = pattern.chart.sizes.map((s) => ({ key: s.id, label: s.label, values: values[s.id] ?? {} }));
 
+  // Every filled cell in one order: what is sent, and how a problem or the server's
+  // "needs.N.lengthMm" finds its way back to the cell.
+  const cells = Object.entries(values).flatMap(([sizeId, byColumn]) =>
+    Object.entries(byColumn).flatMap(([col, lengthMm]) => {
+      const [width, layout] = col.split('|');
+      if (lengthMm == null || !widths.includes(Number(width))) return [];
+      return [{ sizeId, col, widthMm: Number(width), napped: layout === 'napped', lengthMm }];
+    }),
+  );
+  // The same rule the server applies, checked as the designer types.
+  const problems = nappedBelowPlain(
+    cells.map((c) => ({ ...c, sizeKey: c.sizeId, sizeLabel: pattern.chart.sizes.find((s) => s.id === c.sizeId)?.label ?? '?' })),
+    { lengthUnit, fabricUnit },
+  );
+  const cellErrors: Record<string, Record<string, string>> = {};
+  for (const [sizeId, byColumn] of Object.entries(refused)) cellErrors[sizeId] = { ...byColumn };
+  for (const p of problems) (cellErrors[cells[p.index].sizeId] ??= {})[cells[p.index].col] = p.cellMessage;
+
   const save = async () => {
-    setBusy(true);
     setMessage(null);
-    const needs = Object.entries(values).flatMap(([sizeId, byColumn]) =>
-      Object.entries(byColumn).flatMap(([col, lengthMm]) => {
-        const [width, layout] = col.split('|');
-        if (lengthMm == null || !widths.includes(Number(width))) return [];
-        return [{ size: sizeId, widthMm: Number(width), napped: layout === 'napped', lengthMm }];
-      }),
-    );
+    if (problems.length) {
+      setMessage({ tone: 'error', text: 'Not saved: correct the one-way lengths marked in the table first.' });
+      return;
+    }
+    setBusy(true);
+    const sent = cells;
     try {
-      await saveFabricNeeds(studioId, pattern.id, needs);
+      await saveFabricNeeds(
+        studioId,
+        pattern.id,
+        sent.map((c) => ({ size: c.sizeId, widthMm: c.widthMm, napped: c.napped, lengthMm: c.lengthMm })),
+      );
+      setRefused({});
       setMessage({ tone: 'success', text: 'Fabric needs saved.' });
     } catch (error) {
-      const detail = error instanceof ApiError && error.fields ? ` ${Object.values(error.fields).join('; ')}` : '';
+      const fields = error instanceof ApiError && error.fields ? error.fields : {};
+      const byCell: Record<string, Record<string, string>> = {};
+      for (const [field, text] of Object.entries(fields)) {
+        const m = /^needs\.(\d+)\.lengthMm$/.exec(field);
+        const cell = m ? sent[Number(m[1])] : undefined;
+        if (cell) (byCell[cell.sizeId] ??= {})[cell.col] = text;
+      }
+      setRefused(byCell);
+      const detail = Object.keys(fields).length ? ` ${Object.values(fields).join('; ')}` : '';
       setMessage({ tone: 'error', text: `${error instanceof Error ? error.message : 'Not saved.'}${detail}` });
     } finally {
       setBusy(false);
@@ -63,7 +95,7 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   return (
     <Card title="Fabric needs">
       <AppText variant="caption">
-        {`Length of fabric each size needs, in ${fabricUnit === 'yd' ? 'yards' : 'metres'}. “One way” is the layout for napped fabric or a one-way print: every piece the same way up, which usually takes more.`}
+        {`Length of fabric each size needs, in ${fabricUnit === 'yd' ? 'yards' : 'metres'}. “One way” is the layout for napped fabric or a one-way print: every piece the same way up, which takes at least as much as the plain layout and usually more.`}
       </AppText>
       {pattern.chart.sizes.length === 0 ? (
         <AppText variant="caption">Save a size chart first.</AppText>
@@ -76,10 +108,20 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
           unitLabel={fabricUnit}
           readOnly={!canEdit}
           parse={(text) => parseFabricLength(text, fabricUnit)}
-          format={(mm) => formatFabricLength(mm, fabricUnit)}
-          onChange={(row, col, mm) => setValues((v) => ({ ...v, [row]: { ...v[row], [col]: mm } }))}
+          // A stated need is shown rounded up (never short of what the designer typed).
+          format={(mm) => formatFabricNeed(mm, fabricUnit)}
+          errors={cellErrors}
+          onChange={(row, col, mm) => {
+            setValues((v) => ({ ...v, [row]: { ...v[row], [col]: mm } }));
+            setRefused((r) => {
+              if (!r[row]?.[col]) return r;
+              const { [col]: _gone, ...rest } = r[row];
+              return { ...r, [row]: rest };
+            });
+          }}
         />
       )}
+      {problems.length ? <Notice tone="error">{problems.map((p) => p.message).join('\n')}</Notice> : null}
       {canEdit ? (
         <View>
           <MeasurementField label="Add a fabric width" unit={lengthUnit} valueMm={newWidth} onChangeMm={setNewWidth} placeholder={lengthUnit === 'in' ? 'e.g. 54' : 'e.g. 140 cm'} />

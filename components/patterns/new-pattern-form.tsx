@@ -8,8 +8,10 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
+import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
 import { createPattern } from '@/hooks/use-patterns';
+import { FOR_CHILDREN, FOR_CHILDREN_HINT } from './pattern-details-form';
 import { FABRIC_KINDS, GARMENT_CATEGORIES } from '@/server/domain/garments';
 import { createPatternSchema } from '@/server/domain/schemas/patterns';
 
@@ -20,7 +22,7 @@ export function NewPatternForm({ studioId }: { studioId: string }) {
   const [formError, setFormError] = useState<string | null>(null);
   const { control, handleSubmit, setError, formState } = useForm<Values, unknown, z.output<typeof createPatternSchema>>({
     resolver: zodResolver(createPatternSchema),
-    defaultValues: { name: '', category: 'trousers', fabricKind: 'woven', minStretchPct: null, notes: null },
+    defaultValues: { name: '', category: 'trousers', fabricKind: 'woven', minStretchPct: null, notes: null, childrensWear: false },
   });
   const fabricKind = useWatch({ control, name: 'fabricKind' });
   const submit = handleSubmit(async (values) => {
@@ -29,7 +31,7 @@ export function NewPatternForm({ studioId }: { studioId: string }) {
       const pattern = await createPattern(studioId, values);
       router.push({ pathname: '/patterns/[id]', params: { id: pattern.id } });
     } catch (error) {
-      setFormError(applyApiError(error, setError, ['name', 'category', 'fabricKind', 'minStretchPct', 'notes']));
+      setFormError(applyApiError(error, setError, ['name', 'category', 'fabricKind', 'childrensWear', 'minStretchPct', 'notes']));
     }
   });
   return (
@@ -45,6 +47,16 @@ export function NewPatternForm({ studioId }: { studioId: string }) {
         name="category"
         render={({ field, fieldState }) => (
           <ChoiceGroup label="Garment" options={GARMENT_CATEGORIES.map((c) => ({ value: c.key, label: c.label }))} value={field.value} onChange={field.onChange} error={fieldState.error?.message} />
+        )}
+      />
+      <Controller
+        control={control}
+        name="childrensWear"
+        render={({ field, fieldState }) => (
+          <>
+            <ChoiceGroup label="Made for children" options={FOR_CHILDREN} value={field.value ? 'yes' : 'no'} onChange={(v) => field.onChange(v === 'yes')} error={fieldState.error?.message} />
+            <AppText variant="caption">{FOR_CHILDREN_HINT}</AppText>
+          </>
         )}
       />
       <Controller

@@ -18,6 +18,8 @@ export class Pattern extends Model<InferAttributes<Pattern>, InferCreationAttrib
   declare studioId: ForeignKey<Studio['id']>;
   declare name: string;
   declare category: string;
+  /** The designer says the pattern is made for children (whatever the category): children's cautions apply. */
+  declare childrensWear: CreationOptional<boolean>;
   declare fabricKind: string;
   declare minStretchPct: CreationOptional<number | null>;
   declare notes: CreationOptional<string | null>;
@@ -37,6 +39,7 @@ export class Pattern extends Model<InferAttributes<Pattern>, InferCreationAttrib
         id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
         name: { type: DataTypes.STRING(120), allowNull: false },
         category: { type: DataTypes.STRING(30), allowNull: false },
+        childrensWear: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         fabricKind: { type: DataTypes.STRING(20), allowNull: false },
         minStretchPct: { type: DataTypes.SMALLINT, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },

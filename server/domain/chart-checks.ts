@@ -4,7 +4,7 @@
  * with negative ease, thin trouser thighs and ease drift across the range pointed out.
  *
  * Pure on purpose: no Node imports (the chart editor shows these as the designer types).
- * Markers as in ../shared/reference/trade-facts.md: [CP] common practice, [MEM] from memory.
+ * Markers as in tests/reference/SOURCES.md: [CP] common practice, [MEM] from memory.
  */
 import { linearRegression } from 'simple-statistics';
 import {
@@ -81,10 +81,10 @@ export type GradeRun = {
 export type GradeOptions = {
   /**
    * Two steps closer than this count as equal. Default ⅛ in: inch charts print to the nearest ⅛ in
-   * (DESIGN.md "Units"; ASTM D5585 prints in eighths, trade-facts §1), so a printed value may be off
+   * (DESIGN.md "Units"; ASTM D5585 prints in eighths, SOURCES.md §1), so a printed value may be off
    * by up to 1/16 in and a step between two of them by up to ⅛ in. With this default the
    * ⅛ in wobbles of D5585's bust steps (1¼ → 1⅛ → 1) read as rounding, and the run reads as the
-   * progressive grade trade-facts §2 calls it; pass 0 to see every wobble.
+   * progressive grade SOURCES.md §2 calls it; pass 0 to see every wobble.
    */
   toleranceMm?: number;
 };
@@ -93,7 +93,7 @@ export const GRADE_TOLERANCE_MM = MM_PER_INCH / 8;
 /**
  * A step is out of line (a jump) when it is more than 1.5 times each of its two nearest steps and at
  * least 6 mm (about ¼ in) more than each [our rule, CP]. 1.5 times lets a progressive grade pass
- * (trade-facts §2: the Aldrich-attributed chart goes from 4 cm to 6 cm steps, exactly 1.5 times;
+ * (SOURCES.md §2: the Aldrich-attributed chart goes from 4 cm to 6 cm steps, exactly 1.5 times;
  * D5585's largest rise is 1 in → 1½ in, also 1.5 times); 6 mm keeps tiny measurements (a ⅛ in step
  * next to a 1/16 in one) from being called jumps.
  */
@@ -264,7 +264,7 @@ export type EaseOptions = { driftLimitMm?: number };
 
 /**
  * Trouser thigh ease of at least 1 in (Central Washington Univ. costume text, ch. 16 "Ease in
- * Clothing", trade-facts §4; quoted there for non-stretch wovens).
+ * Clothing", SOURCES.md §4; quoted there for non-stretch wovens).
  */
 export const MIN_TROUSER_THIGH_EASE_MM = MM_PER_INCH;
 
@@ -272,13 +272,13 @@ export const MIN_TROUSER_THIGH_EASE_MM = MM_PER_INCH;
  * Ease that changes by more than 1 in from the smallest to the largest size is pointed out [our
  * choice, CP]. Why 1 in: the published ease sets for one and the same area differ by about that much
  * between a close and an easy fit (bodice bust 1½–2 in in the CWU text against 2½ in in the set
- * quoted by Wikipedia, trade-facts §4), so a drift beyond it gives the two ends of the range
+ * quoted by Wikipedia, SOURCES.md §4), so a drift beyond it gives the two ends of the range
  * different fits. A studio can pass its own limit.
  */
 export const DEFAULT_EASE_DRIFT_LIMIT_MM = MM_PER_INCH;
 
 /**
- * Ease = finished − body (trade-facts §4) per size for every finished measurement with a body
+ * Ease = finished − body (SOURCES.md §4) per size for every finished measurement with a body
  * counterpart, with warnings:
  * - negative ease on a girth: a warning for a woven without stretch (it cannot stretch onto the
  *   body), a note for a woven with stretch (it relies on the stretch), nothing for a knit (negative

@@ -8,7 +8,7 @@
  * Pure on purpose: no Node imports, because the app bundles server/domain (the applicants screen
  * draws the grid from the same function the server uses to check a selection).
  *
- * Markers as in ../shared/reference/trade-facts.md: [CP] is common practice with no source.
+ * Markers as in tests/reference/SOURCES.md: [CP] is common practice with no source.
  *
  * The model of the targets (the issue says "testers per size, height bands"):
  * - A target is set per size only: it is the size's capacity, never exceeded by a proposal.
@@ -18,7 +18,7 @@
  *   over the size × band × variant cells. Why: with 2–3 testers per size [CP] a per-band target
  *   would be 0 or 1 anyway, and a fixed band target cannot be met when nobody of that height
  *   applies; "cover every band that has applicants" is what the designer wants from the band
- *   axis (trade-facts §7: testers "across heights and shapes") and needs no extra settings.
+ *   axis (SOURCES.md §7.4: testers "across heights and shapes") and needs no extra settings.
  * - Band limits are lower-inclusive and upper-exclusive (petite < 160 cm, regular 160 cm up to
  *   172 cm, tall 172 cm and over), so contiguous bands never overlap.
  * - An applicant without a height (or with one outside every band) sits in a "height not given"
@@ -95,10 +95,10 @@ export type SelectionOptions = CoverageOptions & {
 // ---------------------------------------------------------------------------------------------
 // Common practice and defaults
 
-/** Testers per size the trade commonly aims for: 2–3 [CP] (trade-facts §7). A default, not a rule. */
+/** Testers per size the trade commonly aims for: 2–3 [CP] (SOURCES.md §7.4). A default, not a rule. */
 export const COMMON_TESTERS_PER_SIZE = 3;
 
-/** Over-recruit about 20–30 % for drop-outs [CP] (trade-facts §7); we take the middle. */
+/** Over-recruit about 20–30 % for drop-outs [CP] (SOURCES.md §7.4); we take the middle. */
 export const COMMON_OVER_RECRUIT_RATE = 0.25;
 
 /**

@@ -6,7 +6,7 @@
  * Pure on purpose: no Node imports, because the app bundles this file too (the pattern editor and
  * the tester's size advice read the same lists).
  *
- * Markers as in ../shared/reference/trade-facts.md: a trade fact with a named source says so; [CP]
+ * Markers as in tests/reference/SOURCES.md: a trade fact with a named source says so; [CP]
  * is common practice with no source; [MEM] is from memory, unverified.
  */
 import type { MeasurementKey } from './measurements';
@@ -40,7 +40,7 @@ export type GarmentCategoryDef = {
    * has then said the legs matter).
    */
   fullLength: 'legs' | 'if-chart-has-inseam' | 'none';
-  /** Trousers-like: the trouser ease figures (thigh at least 1 in, trade-facts §4) apply. */
+  /** Trousers-like: the trouser ease figures (thigh at least 1 in, SOURCES.md §4) apply. */
   hasTrouserLegs: boolean;
 };
 
@@ -148,7 +148,7 @@ export type FinishedMeasurementDef = {
   label: string;
   hint: string;
   /**
-   * The body measurement it is compared with for ease (finished − body, trade-facts §4), or null
+   * The body measurement it is compared with for ease (finished − body, SOURCES.md §4), or null
    * when the body has no counterpart (a hem, a sleeve, a front rise on its own).
    */
   bodyKey: MeasurementKey | null;
@@ -163,9 +163,9 @@ export type FinishedMeasurementDef = {
 /*
  * Girths are taken all the way round, never flat (a flat half-width of 20 in is a 40 in girth): the
  * comparison with a body girth only makes sense that way. Total crotch length is compared with the
- * body's total crotch length; trouser extras of about +1 in there are quoted in trade-facts §4
+ * body's total crotch length; trouser extras of about +1 in there are quoted in SOURCES.md §4
  * (winmichele.wordpress.com, 2019). Front and back rise on their own have no body counterpart in
- * our vocabulary (the body is measured through the legs in one piece, Brenne 2020, trade-facts §1).
+ * our vocabulary (the body is measured through the legs in one piece, Brenne 2020, SOURCES.md §1).
  */
 export const FINISHED_MEASUREMENTS: readonly FinishedMeasurementDef[] = [
   { key: 'bust', label: 'Bust', hint: 'All the way round the garment at the bust line.', bodyKey: 'bust', kind: 'girth' },
@@ -220,12 +220,12 @@ export type GoverningRule = {
  *
  * - Trousers, shorts, skirts: the hip, then the waist (DESIGN.md "The computation" §1). The hip
  *   cannot be taken in or let out much without redrawing the crotch and side seams; the waist is
- *   easy to adjust at the side seams, darts and centre back (the waist/hip rows of trade-facts §3).
+ *   easy to adjust at the side seams, darts and centre back (the waist/hip rows of SOURCES.md §3).
  *
  * - Tops, shirts, dresses, jackets, coats: the high bust where both the chart and the body have it,
  *   else the bust. The high bust measures the frame (shoulders, neck, upper chest), which is hard
  *   to alter, while the full bust adds the cup, which a cup variant or a full/small bust adjustment
- *   handles (trade-facts §3 "fba"; patterns are commonly drafted for a B cup [MEM]). Choosing by the
+ *   handles (SOURCES.md §3 "fba"; patterns are commonly drafted for a B cup [MEM]). Choosing by the
  *   full bust puts a full-busted tester in a size too big at the shoulders and neck [CP]. Dresses are
  *   sized from the top because the bodice is the hard part to alter; the waist and hip then show as a
  *   blend [CP].
@@ -266,8 +266,8 @@ export function governingMeasurements(category: GarmentCategory): readonly Measu
 }
 
 /*
- * The girths where a tester may cut one size and blend to another (trade-facts §7: "size cut and
- * any blending"). Lower-body garments blend between waist and hip; garments with a bodice blend
+ * The girths where a tester may cut one size and blend to another (testers report the size cut
+ * and any blending, SOURCES.md §7.4). Lower-body garments blend between waist and hip; garments with a bodice blend
  * between bust, waist and hip [CP]. Only those the chart gives are used.
  */
 const LOWER: readonly MeasurementKey[] = ['waist', 'high_hip', 'hip'];

@@ -2,8 +2,8 @@
  * The body-measurement vocabulary (DESIGN.md "Size chart" and "Tester profile"), shared by the
  * profile form, the call page's application form, size charts and the server's request schemas.
  *
- * Keys are the survey measurement keys of trade-facts §3; the definitions in the hints follow
- * trade-facts §1 (bust from EN 13402-1; the trouser landmarks from Brenne, "Focus on Fit: Trouser
+ * Keys are the survey measurement keys of tests/reference/SOURCES.md §3; the definitions in the hints follow
+ * SOURCES.md §1 (bust from EN 13402-1; the trouser landmarks from Brenne, "Focus on Fit: Trouser
  * fitting", 2020; inseam, outseam and height [MEM] there). Pure: the app bundles it too.
  */
 import { z } from 'zod';
@@ -44,7 +44,7 @@ export type MeasurementDef = {
  * Ranges: deliberately wide plausibility bounds, not a size chart. They must admit a toddler
  * measured for children's wear (height from 50 cm) and the largest adult plus sizes, and refuse
  * only what cannot be a body: a hip of 3 cm, a bust of 25 m, inches typed as centimetres at the
- * low end. Chosen as common practice from the charts in trade-facts §1 widened generously on both
+ * low end. Chosen as common practice from the charts in SOURCES.md §1 widened generously on both
  * sides; no published source gives limits like these.
  */
 export const MEASUREMENTS: readonly MeasurementDef[] = [

@@ -9,7 +9,7 @@
  *
  * The size-fit rule: a body fits a size when it is within the chart value ± half the interval to
  * the neighbouring size (Simmons et al. 2004, as applied by Shin & Saeidi, JFMM 2022,
- * doi:10.1108/JFMM-09-2020-0213; trade-facts §1). Where a chart grades progressively the interval
+ * doi:10.1108/JFMM-09-2020-0213; tests/reference/SOURCES.md §1). Where a chart grades progressively the interval
  * differs on each side of a size, so we take half the interval to the neighbour on the side the
  * body lies; at the ends of the range, half the interval to the only neighbour. The bands of
  * neighbouring sizes then meet exactly half-way between their chart values: a body on that line
@@ -145,13 +145,13 @@ export const LEG_SHARE_OF_HEIGHT = 0.45;
 
 /**
  * Below ½ in, a rough estimate from height is not worth acting on: lengthen/shorten alterations
- * commonly run ½–3 in (trade-facts §3, leg_length, [CP]).
+ * commonly run ½–3 in (SOURCES.md §3, leg_length, [CP]).
  */
 export const ROUGH_LEG_CHANGE_MIN_MM = 12.7;
 
 /**
  * A full-minus-high-bust difference of about 2 in is what a pattern drafted for a B cup assumes,
- * and about 1 in more or less is one cup size (trade-facts §3 "fba": trigger when full − high bust
+ * and about 1 in more or less is one cup size (SOURCES.md §3 "fba": trigger when full − high bust
  * > 2 in on a B-cup draft [MEM]; 1 in per cup [CP]).
  */
 export const ASSUMED_DRAFT_CUP_DIFF_MM = 2 * MM_PER_INCH;
@@ -555,7 +555,7 @@ function fullerBellyAdvice(input: SizeAdviceInput, chosen: ChartSize, advice: Si
   const variant = variants.find((v) => v.overrides[chosen.id] !== undefined) ?? variants[0];
   if (variant === undefined) {
     // Without a variant, say so only where the trade's full tummy alteration applies (front
-    // crotch length and waist shaping of a lower garment, trade-facts §3 full_tummy); on a top or
+    // crotch length and waist shaping of a lower garment, SOURCES.md §3 full_tummy); on a top or
     // dress the blend above already tells the tester to grade out at the waist.
     if (!FULL_TUMMY.has(input.category)) return;
     const text = `${head}: this pattern has no fuller-belly variant, so expect to add room at the front (a full tummy adjustment).`;

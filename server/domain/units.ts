@@ -4,7 +4,7 @@
  * Pure on purpose: no Node imports, because the app bundles this file too and both ends must read
  * "1 3/8" the same way.
  *
- * Exact definitions (trade-facts §5, the international yard and pound agreement of 1959):
+ * Exact definitions (tests/reference/SOURCES.md §5, the international yard and pound agreement of 1959):
  * 1 in = 25.4 mm and 1 yd = 0.9144 m.
  */
 
@@ -106,7 +106,7 @@ const MM_PER: Record<UnitWord, number> = {
   yd: MM_PER_YARD,
 };
 
-/** Unicode vulgar fractions in eighths, as printed charts (and trade-facts §1) write them. */
+/** Unicode vulgar fractions in eighths, as printed charts write them (SOURCES.md §1.1). */
 const VULGAR: Record<string, string> = {
   '⅛': '1/8',
   '¼': '1/4',
@@ -359,14 +359,25 @@ export function formatFabricLength(mm: number, unit: FabricUnit): string {
 }
 
 /**
- * Shows a stated fabric NEED: like formatFabricLength, but rounded up (to the next 1/8 yd, or the
- * next centimetre), because a yardage shown short leaves the sewist without enough fabric
- * (common practice on pattern envelopes: a need is never rounded down).
+ * Rounds up to a whole number of steps, after cutting float noise at 9 decimals so an exact
+ * eighth (2286 mm = 2 1/2 yd: 2286 / 914.4 × 8 = 20.000000000000004) is not pushed a step up.
+ */
+function ceilSteps(x: number): number {
+  return unsignedZero(Math.ceil(Number(x.toFixed(9))));
+}
+
+/**
+ * Shows a stated fabric NEED (how much to buy): yards rounded UP to the next 1/8 yd, metres UP to
+ * the next centimetre, so the length shown is never less than the need (2300 mm is 2 5/8 yd,
+ * not the 2 1/2 yd = 2286 mm that nearest rounding gives). Fabric is sold in eighths of a yard or
+ * by the centimetre (common practice, tests/reference/SOURCES.md §5.3). A length already used or measured is shown to the nearest
+ * step with formatFabricLength instead. Needs are never negative; the output is accepted by
+ * parseFabricLength.
  */
 export function formatFabricNeed(mm: number, unit: FabricUnit): string {
   if (!Number.isFinite(mm)) return '';
-  const step = unit === 'yd' ? MM_PER_YARD / 8 : MM_PER_CM;
-  // Cut float noise first so an exact 2 1/4 yd (2057.4 mm) is not pushed up to 2 3/8.
-  const steps = Math.ceil(Number((mm / step).toFixed(9)));
-  return formatFabricLength(steps * step, unit);
+  const need = Math.max(0, mm);
+  if (unit === 'yd') return `${mixedFraction(ceilSteps((need / MM_PER_YARD) * 8), 8)} yd`;
+  const cm = ceilSteps(need / MM_PER_CM);
+  return `${Math.floor(cm / 100)}.${String(cm % 100).padStart(2, '0')} m`;
 }

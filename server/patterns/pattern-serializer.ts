@@ -6,6 +6,7 @@ export function serializePatternSummary(pattern: Pattern) {
     id: pattern.id,
     name: pattern.name,
     category: pattern.category,
+    childrensWear: pattern.childrensWear,
     fabricKind: pattern.fabricKind,
     minStretchPct: pattern.minStretchPct,
     archived: pattern.archivedAt !== null,

@@ -51,7 +51,8 @@ export function patternsRouter(deps: AppDeps): Router {
   });
 
   router.put('/:patternId/fabric-needs', write, pattern, validate({ body: fabricNeedsSchema }), async (req, res) => {
-    res.json(serializePattern(await saveFabricNeeds(studioId(res), String(req.params.patternId), res.locals.body)));
+    const { lengthUnit, fabricUnit } = res.locals.user!;
+    res.json(serializePattern(await saveFabricNeeds(studioId(res), String(req.params.patternId), res.locals.body, { lengthUnit, fabricUnit })));
   });
 
   // The chart as a spreadsheet, in the caller's unit.

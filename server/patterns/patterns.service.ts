@@ -2,6 +2,8 @@ import { Op, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { Enrollment, FabricNeed, Pattern, PatternSize, PatternVariant } from '../../db/models';
 import type { chartSchema, createPatternSchema, fabricNeedsSchema, updatePatternSchema } from '../domain/schemas/patterns';
+import { nappedBelowPlain } from '../domain/fabric-needs';
+import type { FabricUnit, LengthUnit } from '../domain/units';
 import { badRequest, conflict, notFound } from '../errors';
 
 export type ChartOutput = z.output<typeof chartSchema>;
@@ -121,8 +123,17 @@ export async function saveChart(studioId: string, patternId: string, chart: Char
   });
 }
 
-/** Replaces the fabric needs; sizes are named by id or label. */
-export async function saveFabricNeeds(studioId: string, patternId: string, input: z.output<typeof fabricNeedsSchema>) {
+/**
+ * Replaces the fabric needs; sizes are named by id or label. A one-way (napped) need below the
+ * plain need for the same size and width is refused, naming the cell, and nothing is saved.
+ * `units` words the refusal in the caller's units.
+ */
+export async function saveFabricNeeds(
+  studioId: string,
+  patternId: string,
+  input: z.output<typeof fabricNeedsSchema>,
+  units: { lengthUnit: LengthUnit; fabricUnit: FabricUnit } = { lengthUnit: 'cm', fabricUnit: 'm' },
+) {
   return Pattern.sequelize!.transaction(async (transaction) => {
     const pattern = await loadPattern(studioId, patternId, transaction);
     const sizes = pattern.sizes ?? [];
@@ -136,6 +147,10 @@ export async function saveFabricNeeds(studioId: string, patternId: string, input
       seen.add(key);
       return { patternId, sizeId: size?.id ?? '', widthMm: need.widthMm, napped: need.napped, lengthMm: need.lengthMm };
     });
+    if (!Object.keys(fields).length) {
+      const cells = rows.map((r, i) => ({ ...r, sizeKey: r.sizeId, sizeLabel: sizes.find((s) => s.id === r.sizeId)?.label ?? input.needs[i].size }));
+      for (const problem of nappedBelowPlain(cells, units)) fields[`needs.${problem.index}.lengthMm`] = problem.message;
+    }
     if (Object.keys(fields).length) throw badRequest('Some fabric needs could not be saved; nothing was changed.', fields);
     await FabricNeed.destroy({ where: { patternId }, transaction });
     await FabricNeed.bulkCreate(rows, { transaction });

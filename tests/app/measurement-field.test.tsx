@@ -1,5 +1,5 @@
 // The unit-aware length input. Expected millimetres by hand from 1 in = 25.4 mm exactly (the
-// international yard and pound agreement of 1959, trade-facts §5): 1 3/8 in = 11 × 25.4 / 8 =
+// international yard and pound agreement of 1959, tests/reference/SOURCES.md §5): 1 3/8 in = 11 × 25.4 / 8 =
 // 34.925 mm; 1/2 in = 12.7 mm; 35 mm = 1.378 in, shown to the nearest 1/8 as 1 3/8 in.
 import { act, fireEvent, render, screen, waitFor } from '@testing-library/react-native';
 import { useState } from 'react';

@@ -90,16 +90,58 @@ describe('patterns and size charts in Chromium', () => {
     expect(h.errors).toEqual([]);
   });
 
-  it('on a phone the chart is edited one size at a time, and children’s wear shows its safety cautions', async () => {
+  it('on a phone the chart is edited one size at a time, and a children’s hoodie filed as a top gets the children’s cautions', async () => {
     const studio = await createStudio('Kids Studio');
     const owner = await createUser('kids-owner');
     await addMember(studio, owner, 'owner');
     const t = h.t;
+    // Filed as a top, sizes 4 and 6 (the same numbers as misses' sizes): nothing says "children" yet.
     const created = await request(t.app)
       .post(`/api/studios/${studio.id}/patterns`)
       .set({ Authorization: bearer(owner, t.config) })
-      .send({ name: 'Hooded jacket', category: 'childrens-wear', fabricKind: 'woven' })
+      .send({ name: 'Hooded jacket', category: 'top', fabricKind: 'woven' })
       .expect(201);
+    await request(t.app)
+      .put(`/api/studios/${studio.id}/patterns/${created.body.id}/chart`)
+      .set({ Authorization: bearer(owner, t.config) })
+      .send({
+        draftedHeightMm: null,
+        bodyColumns: ['bust'],
+        finishedColumns: [],
+        sizes: [
+          { label: '4', bodyMm: { bust: 560 } },
+          { label: '6', bodyMm: { bust: 600 } },
+        ],
+        variants: [],
+      })
+      .expect(200);
+
+    const context = await signedIn(h, owner.email);
+    const page = await h.newPage(context, PHONE);
+    await page.goto(`/patterns/${created.body.id}`);
+    await page.getByRole('heading', { name: 'Hooded jacket' }).waitFor();
+    await page.getByText('Care notes for the instructions').waitFor();
+    await page.getByText(/Made for children\? Marking it so/).waitFor();
+    expect(await page.getByText(/ASTM F1816-18/).count()).toBe(0);
+
+    // The designer marks it as made for children: the drawstring caution shows, with the reason.
+    await page.getByRole('radiogroup', { name: 'Made for children' }).getByRole('radio', { name: 'Yes, in children’s sizes' }).click();
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await page.getByText('Details saved.').waitFor();
+    await page.getByText('Safety cautions for this garment').waitFor();
+    await page.getByText('The children’s cautions show because the pattern is marked as made for children.').waitFor();
+    await page.getByText(/ASTM F1816-18/).first().waitFor();
+    await page.getByText(/exempts \(16 CFR 1501\.3\)/).waitFor();
+    await page.getByText('Safety cautions for this garment').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-phone.png') });
+    await page.getByText(/exempts \(16 CFR 1501\.3\)/).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-small-parts-phone.png') });
+    const wide = await h.newPage(context, WIDE);
+    await wide.goto(`/patterns/${created.body.id}`);
+    await wide.getByText('Safety cautions for this garment').waitFor();
+    await wide.screenshot({ path: path.join(SCREENSHOT_DIR, 'pattern-cautions-wide.png') });
+
+    // A height under 150 cm in the chart is a reason too.
     await request(t.app)
       .put(`/api/studios/${studio.id}/patterns/${created.body.id}/chart`)
       .set({ Authorization: bearer(owner, t.config) })
@@ -114,13 +156,42 @@ describe('patterns and size charts in Chromium', () => {
         variants: [],
       })
       .expect(200);
+    await page.reload();
+    await page.getByText(/and the chart gives a height under 59 in for sizes 4, 6\./).waitFor();
 
-    const context = await signedIn(h, owner.email);
-    const page = await h.newPage(context, PHONE);
-    await page.goto(`/patterns/${created.body.id}`);
+    // Fabric needs on the phone: a one-way length below the plain one is marked on its cell and not saved.
+    const plain = page.getByLabel('Fabric 45 in wide, size 4');
+    await plain.fill('2 1/2');
+    await plain.blur();
+    const oneWay = page.getByLabel('Fabric 45 in, one way, size 4');
+    await oneWay.fill('2 1/4');
+    await oneWay.blur();
+    await page.getByText('Fabric 45 in, one way, size 4: is below the 2 1/2 yd stated without a one-way layout').waitFor();
+    await page.getByRole('button', { name: 'Save fabric needs' }).click();
+    await page.getByText('Not saved: correct the one-way lengths marked in the table first.').waitFor();
+    await oneWay.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'fabric-needs-refused-phone.png') });
+    // 2.3 m is 2300 mm: shown as 2 5/8 yd (rounded up), never 2 1/2 yd.
+    await oneWay.fill('2.3 m');
+    await oneWay.blur();
+    expect(await oneWay.inputValue()).toBe('2 5/8 yd');
+    await page.getByRole('button', { name: 'Save fabric needs' }).click();
+    await page.getByText('Fabric needs saved.').waitFor();
+    await page.reload();
     await page.getByRole('heading', { name: 'Hooded jacket' }).waitFor();
-    await page.getByText('Safety cautions for this garment').waitFor();
-    await page.getByText(/ASTM F1816-18/).first().waitFor();
+    expect(await page.getByLabel('Fabric 45 in, one way, size 4').inputValue()).toBe('2 5/8 yd');
+
+    // The same rule in the full grid on a wide screen.
+    await wide.reload();
+    const widePlain = wide.getByLabel('Fabric 45 in wide, size 6');
+    await widePlain.fill('2');
+    await widePlain.blur();
+    const wideOneWay = wide.getByLabel('Fabric 45 in, one way, size 6');
+    await wideOneWay.fill('1 7/8');
+    await wideOneWay.blur();
+    await wide.getByText('Fabric 45 in, one way, size 6: is below the 2 yd stated without a one-way layout').waitFor();
+    await wide.getByRole('button', { name: 'Save fabric needs' }).scrollIntoViewIfNeeded();
+    await wide.screenshot({ path: path.join(SCREENSHOT_DIR, 'fabric-needs-refused-wide.png') });
 
     const sizePicker = page.getByRole('radiogroup', { name: 'Body: size' });
     await sizePicker.getByRole('radio', { name: '6' }).click();

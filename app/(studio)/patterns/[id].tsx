@@ -37,14 +37,14 @@ export default function PatternScreen() {
   const canEdit = can(currentStudio?.role, 'patterns.write');
   const category = GARMENT_CATEGORIES.find((c) => c.key === pattern.category);
   const fabric = FABRIC_KINDS.find((k) => k.key === pattern.fabricKind);
-  const intro = `${category?.label ?? pattern.category} · ${fabric?.label ?? pattern.fabricKind}${
+  const intro = `${category?.label ?? pattern.category}${pattern.childrensWear && pattern.category !== 'childrens-wear' ? ' · for children' : ''} · ${fabric?.label ?? pattern.fabricKind}${
     pattern.minStretchPct != null ? ` (at least ${pattern.minStretchPct} % stretch)` : ''
   }${pattern.archived ? ' · archived' : ''}${canEdit ? '' : ' · read-only'}`;
 
   return (
     <Screen title={pattern.name} intro={intro}>
-      <CautionsPanel category={pattern.category as GarmentCategory} />
-      {canEdit ? <PatternDetailsForm key={`details-${pattern.updatedAt}`} studioId={studioId} pattern={pattern} /> : null}
+      <CautionsPanel pattern={{ category: pattern.category, childrensWear: pattern.childrensWear, draftedHeightMm: pattern.chart.draftedHeightMm, sizes: pattern.chart.sizes }} unit={session.user.lengthUnit} />
+      {canEdit ? <PatternDetailsForm key={`details-${pattern.id}`} studioId={studioId} pattern={pattern} /> : null}
       <ChartEditor key={`chart-${generation}`} studioId={studioId} pattern={pattern} unit={session.user.lengthUnit} canEdit={canEdit} />
       <CsvPanel studioId={studioId} patternId={pattern.id} canEdit={canEdit} onImported={() => setGeneration((g) => g + 1)} />
       <FabricNeedsEditor key={`fabric-${generation}-${pattern.chart.sizes.length}`} studioId={studioId} pattern={pattern} lengthUnit={session.user.lengthUnit} fabricUnit={session.user.fabricUnit} canEdit={canEdit} />

@@ -4,12 +4,23 @@ import { checkMeasurement, MEASUREMENT_KEYS, type MeasurementKey } from '../meas
 
 const mm = z.number({ error: 'must be a length in millimetres' }).positive('must be more than zero').max(5000, 'must be at most 5 m');
 
-export const patternFieldsSchema = z.object({
+// The fields without defaults: a change (PATCH) must leave out what it does not send, and zod 4's
+// .partial() still fills in a field's default, which would erase the saved value.
+const patternFields = {
   name: z.string({ error: 'Enter the pattern name' }).trim().min(1, 'Enter the pattern name').max(120, 'Use at most 120 characters'),
   category: z.enum(GARMENT_CATEGORY_KEYS, { error: 'Choose a garment category from the list' }),
   fabricKind: z.enum(FABRIC_KIND_KEYS, { error: 'Choose woven, woven with stretch, or knit' }),
-  minStretchPct: z.number().int('Use a whole percentage').min(0).max(200, 'Use at most 200 %').nullable().default(null),
-  notes: z.string().trim().max(5000, 'Use at most 5000 characters').nullable().default(null),
+  minStretchPct: z.number().int('Use a whole percentage').min(0).max(200, 'Use at most 200 %').nullable(),
+  notes: z.string().trim().max(5000, 'Use at most 5000 characters').nullable(),
+  /** Made for children, whatever the category: the children's safety cautions apply. */
+  childrensWear: z.boolean({ error: 'must be true or false' }),
+};
+
+export const patternFieldsSchema = z.object({
+  ...patternFields,
+  minStretchPct: patternFields.minStretchPct.default(null),
+  notes: patternFields.notes.default(null),
+  childrensWear: patternFields.childrensWear.default(false),
 });
 
 /** Creating a pattern; a knit must say how much stretch it needs. */
@@ -20,7 +31,8 @@ export const createPatternSchema = patternFieldsSchema.superRefine((p, ctx) => {
 });
 export type CreatePatternInput = z.input<typeof createPatternSchema>;
 
-export const updatePatternSchema = patternFieldsSchema
+export const updatePatternSchema = z
+  .object(patternFields)
   .partial()
   .extend({ archived: z.boolean({ error: 'must be true or false' }).optional() });
 

@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { Client } from 'pg';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { createSequelize } from '../../../db/sequelize';
-import { migrateDownAll, migrateUp } from '../../../db/migrator';
+import { createMigrator, migrateDownAll, migrateUp } from '../../../db/migrator';
 import { migrations } from '../../../db/migrations';
 import { DEMO_ACCOUNTS, seedDemoStudio } from '../../../db/seeders/demo-studio';
 
@@ -47,6 +47,42 @@ describe('migrations', () => {
 
       // and the whole chain applies again on the emptied schema
       expect(await migrateUp(sequelize)).toHaveLength(migrations.length);
+    });
+  });
+
+  it('0020 adds the children’s-wear flag (false for patterns already there), and its down removes only that column', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      const before = migrations.findIndex((m) => m.name === '0020-pattern-childrens-wear');
+      expect(before).toBeGreaterThan(0);
+      const migrator = createMigrator(sequelize);
+      await migrator.up({ to: migrations[before - 1].name });
+      // Plain SQL: the models already know the new column.
+      await sequelize.query(
+        "INSERT INTO studios (id, name, slug, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000001', 'Flag Studio', 'flag-studio', now(), now()); " +
+          "INSERT INTO patterns (id, studio_id, name, category, fabric_kind, created_at, updated_at) VALUES " +
+          "('00000000-0000-4000-8000-000000000002', '00000000-0000-4000-8000-000000000001', 'Hoodie', 'top', 'woven', now(), now())",
+      );
+      const columns = async () =>
+        (
+          await sequelize.query<{ name: string }>(
+            "SELECT column_name::text AS name FROM information_schema.columns WHERE table_name = 'patterns' ORDER BY 1",
+            { type: QueryTypes.SELECT },
+          )
+        ).map((r) => r.name);
+      const without = await columns();
+      expect(without).not.toContain('childrens_wear');
+
+      await migrator.up({ to: '0020-pattern-childrens-wear' });
+      expect(await columns()).toEqual([...without, 'childrens_wear'].sort());
+      const flags = await sequelize.query<{ childrens_wear: boolean }>('SELECT childrens_wear FROM patterns', { type: QueryTypes.SELECT });
+      expect(flags.length).toBe(1);
+      expect(flags.map((f) => f.childrens_wear)).toEqual([false]);
+
+      await migrator.down({ to: '0020-pattern-childrens-wear' });
+      expect(await columns()).toEqual(without);
+      // the pattern itself is still there
+      const [count] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM patterns', { type: QueryTypes.SELECT });
+      expect(Number(count.n)).toBe(1);
     });
   });
 

@@ -50,6 +50,33 @@ describe('patterns and size charts', () => {
     expect(Object.keys(bad.body.error.fields).sort()).toEqual(['category', 'fabricKind', 'name']);
   });
 
+  it('keeps the “made for children” flag: false unless given, changed by PATCH, refused when not true or false', async () => {
+    const plain = await newPattern({ name: 'Hoodie', category: 'top' });
+    expect((await request(t.app).get(`${base}/${plain.id}`).set(as('grader'))).body.childrensWear).toBe(false);
+    const kids = await request(t.app).post(base).set(as('coordinator')).send({ name: 'Kids hoodie', category: 'jacket', fabricKind: 'woven', childrensWear: true });
+    expect(kids.status).toBe(201);
+    expect(kids.body.childrensWear).toBe(true);
+    const changed = await request(t.app).patch(`${base}/${plain.id}`).set(as('coordinator')).send({ childrensWear: true });
+    expect(changed.status).toBe(200);
+    expect(changed.body.childrensWear).toBe(true);
+    const listed = await request(t.app).get(base).set(as('grader'));
+    expect(listed.body.find((x: { id: string }) => x.id === plain.id).childrensWear).toBe(true);
+    const bad = await request(t.app).patch(`${base}/${plain.id}`).set(as('coordinator')).send({ childrensWear: 'yes' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toEqual({ childrensWear: 'must be true or false' });
+  });
+
+  it('a change that leaves fields out keeps them: archiving keeps the notes, a knit’s stretch and the children’s flag', async () => {
+    const p = await request(t.app)
+      .post(base)
+      .set(as('coordinator'))
+      .send({ name: 'Kids tee', category: 'top', fabricKind: 'knit', minStretchPct: 40, notes: 'Fit notes kept', childrensWear: true });
+    expect(p.status).toBe(201);
+    const archived = await request(t.app).patch(`${base}/${p.body.id}`).set(as('owner')).send({ archived: true });
+    expect(archived.status).toBe(200);
+    expect(archived.body).toMatchObject({ archived: true, minStretchPct: 40, notes: 'Fit notes kept', childrensWear: true });
+  });
+
   it('archives a pattern out of the list and back', async () => {
     const p = await newPattern({ name: 'Archived skirt', category: 'skirt' });
     await request(t.app).patch(`${base}/${p.id}`).set(as('owner')).send({ archived: true }).expect(200);
@@ -171,6 +198,61 @@ describe('patterns and size charts', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toEqual({ 'needs.3.size': '"44" is not a size of this pattern' });
     expect((await request(t.app).get(`${base}/${p.id}`).set(as('grader'))).body.fabricNeeds).toHaveLength(3);
+  });
+
+  it('refuses a one-way (napped) need below the plain need for the same size and width, naming the cell; nothing changes', async () => {
+    const p = await newPattern();
+    const saved = await request(t.app).put(`${base}/${p.id}/chart`).set(as('coordinator')).send(chart).expect(200);
+    const size10 = saved.body.chart.sizes.find((s: { label: string }) => s.label === '10').id as string;
+    const first = [
+      { size: '10', widthMm: 1143, napped: false, lengthMm: 2.5 * 914.4 },
+      { size: '10', widthMm: 1143, napped: true, lengthMm: 2.75 * 914.4 },
+    ];
+    await request(t.app).put(`${base}/${p.id}/fabric-needs`).set(as('coordinator')).send({ needs: first }).expect(200);
+
+    // The size named once by label and once by id is still the same size. 2 1/4 yd < 2 1/2 yd.
+    const bad = await request(t.app)
+      .put(`${base}/${p.id}/fabric-needs`)
+      .set(as('coordinator'))
+      .send({
+        needs: [
+          { size: '10', widthMm: 1143, napped: false, lengthMm: 2.5 * 914.4 },
+          { size: '12', widthMm: 1143, napped: false, lengthMm: 2000 },
+          { size: size10, widthMm: 1143, napped: true, lengthMm: 2.25 * 914.4 },
+        ],
+      });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toEqual(['needs.2.lengthMm']);
+    // Worded in the caller's units (the coordinator reads inches and yards).
+    expect(bad.body.error.fields['needs.2.lengthMm']).toMatch(/^Size 10, 45 in wide, one way: 2 1\/4 yd is less than the 2 1\/2 yd stated without a one-way layout/);
+    const after = (await request(t.app).get(`${base}/${p.id}`).set(as('grader'))).body.fabricNeeds as { napped: boolean; lengthMm: number }[];
+    expect(after.find((n) => n.napped)?.lengthMm).toBeCloseTo(2.75 * 914.4, 6);
+
+    // Two lengths that round up to the same eighth (2290 and 2300 mm are both 2 5/8 yd) show the millimetres.
+    const close = await request(t.app)
+      .put(`${base}/${p.id}/fabric-needs`)
+      .set(as('coordinator'))
+      .send({ needs: [{ size: '10', widthMm: 1143, napped: false, lengthMm: 2300 }, { size: '10', widthMm: 1143, napped: true, lengthMm: 2290 }] });
+    expect(close.status).toBe(400);
+    expect(close.body.error.fields['needs.1.lengthMm']).toContain('2 5/8 yd (2290 mm) is less than the 2 5/8 yd (2300 mm)');
+  });
+
+  it('accepts a one-way need equal to the plain one, and one-way needs at a width with no plain need', async () => {
+    const p = await newPattern();
+    await request(t.app).put(`${base}/${p.id}/chart`).set(as('coordinator')).send(chart).expect(200);
+    const ok = await request(t.app)
+      .put(`${base}/${p.id}/fabric-needs`)
+      .set(as('coordinator'))
+      .send({
+        needs: [
+          { size: '10', widthMm: 1143, napped: false, lengthMm: 2300 },
+          { size: '10', widthMm: 1143, napped: true, lengthMm: 2300 },
+          // a one-way need at 60 in below the plain need at 45 in is fine: a wider fabric takes less
+          { size: '10', widthMm: 1524, napped: true, lengthMm: 1800 },
+        ],
+      });
+    expect(ok.status).toBe(200);
+    expect(ok.body.fabricNeeds).toHaveLength(3);
   });
 
   it('a pattern of another studio is not found, even by id', async () => {

@@ -1,7 +1,7 @@
 // Chart checks (grade steps, ease) against outside sources. Each check names its source beside it
-// with the marker used in ../shared/reference/trade-facts.md: [SRC] a named source, [2nd] a
-// secondary copy, [CALC] recomputed there, [CP] common practice, [MEM] from memory; "by hand" =
-// arithmetic shown in the comment. 1 in = 25.4 mm exactly (1959 agreement; trade-facts §5).
+// with the marker used in tests/reference/SOURCES.md: [SRC] a named source, [2nd] a
+// secondary copy, [CALC] calculated, [CP] common practice, [MEM] from memory; "by hand" =
+// arithmetic shown in the comment. 1 in = 25.4 mm exactly (1959 agreement; SOURCES.md §5).
 import { linearRegression } from 'simple-statistics';
 import {
   easeTable,
@@ -24,7 +24,7 @@ function sizesOf(labels: string[], columns: Partial<Record<MeasurementKey, numbe
   }));
 }
 
-// ASTM D5585-11e1, Table 1, inches (trade-facts §1 [SRC: ASTM page]).
+// ASTM D5585-11e1, Table 1, inches (SOURCES.md §1 [SRC: ASTM page]).
 const D5585_SIZES = ['00', '0', '2', '4', '6', '8', '10', '12', '14', '16', '18', '20'];
 const D5585_BUST = [31.125, 31.75, 33, 34.125, 35.25, 36.25, 37.25, 38.75, 40.375, 42.125, 44, 46];
 const D5585_WAIST_CURVY = [23.875, 24.625, 25.375, 26.125, 27, 28, 29, 30.75, 32.5, 34.5, 36.75, 39];
@@ -33,13 +33,13 @@ const d5585 = sizesOf(D5585_SIZES, { bust: D5585_BUST, waist: D5585_WAIST_CURVY 
 describe('grade steps of the ASTM D5585-11e1 bust: a progressive grade', () => {
   const run = gradeSteps(d5585, 'bust', 'in');
 
-  it('has the steps 0.625, 1.25, 1.125, 1.125, 1, 1, 1.5, 1.625, 1.75, 1.875, 2 in (trade-facts §2 [CALC])', () => {
+  it('has the steps 0.625, 1.25, 1.125, 1.125, 1, 1, 1.5, 1.625, 1.75, 1.875, 2 in (SOURCES.md §2 [CALC])', () => {
     const expected = [0.625, 1.25, 1.125, 1.125, 1, 1, 1.5, 1.625, 1.75, 1.875, 2];
     expect(run.steps).toHaveLength(expected.length);
     run.steps.forEach((s, i) => expect(s.stepMm / IN).toBeCloseTo(expected[i] as number, 9));
   });
 
-  it('10 → 12 = 1.5 in against 6 → 8 = 1.0 in (best check values: D5585-11e1, [CALC])', () => {
+  it('10 → 12 = 1.5 in against 6 → 8 = 1.0 in (D5585-11e1, SOURCES.md §2 [CALC])', () => {
     const step = (from: string) => run.steps.find((s) => s.from.label === from);
     expect((step('10')?.stepMm ?? NaN) / IN).toBeCloseTo(1.5, 9);
     expect((step('6')?.stepMm ?? NaN) / IN).toBeCloseTo(1.0, 9);
@@ -72,13 +72,13 @@ describe('grade steps of the ASTM D5585-11e1 bust: a progressive grade', () => {
 });
 
 describe('grade steps of other charts', () => {
-  it('a 1 in grade is constant (numeric ranges usually use a 1 in grade, trade-facts §2 [SRC: A. Hoenes])', () => {
+  it('a 1 in grade is constant (numeric ranges usually use a 1 in grade, SOURCES.md §2 [SRC: A. Hoenes])', () => {
     const run = gradeSteps(sizesOf(['8', '10', '12', '14'], { hip: [36, 37, 38, 39] }), 'hip', 'in');
     expect(run.pattern).toBe('constant');
     expect(run.summary).toBe('Hip grades by a constant 1 in per size.');
   });
 
-  it('4 cm steps then 6 cm is progressive and not a jump (Aldrich-attributed chart, trade-facts §1 and §2 [2nd])', () => {
+  it('4 cm steps then 6 cm is progressive and not a jump (Aldrich-attributed chart, SOURCES.md §1 and §2 [2nd])', () => {
     const bustCm = [76, 80, 84, 88, 92, 96, 100, 104, 110, 116, 122];
     const labels = ['6', '8', '10', '12', '14', '16', '18', '20', '22', '24', '26'];
     const run = gradeSteps(sizesOf(labels, { bust: bustCm }, (cm) => cm * 10), 'bust', 'cm');
@@ -139,7 +139,7 @@ function easeSizes(rows: { label: string; body: Partial<Record<MeasurementKey, n
 }
 
 describe('ease = finished − body', () => {
-  it('40.5 − 38 = +2.5 in (ease definition, trade-facts §4 [CP]; best check values: CWU / CP)', () => {
+  it('40.5 − 38 = +2.5 in (ease definition, SOURCES.md §4 [CP])', () => {
     const table = easeTable(easeSizes([{ label: '12', body: { hip: 38 }, finished: { hip: 40.5 } }]), 'woven', 'trousers', 'in');
     const cell = table.rows.find((r) => r.key === 'hip')?.cells[0];
     expect(cell?.easeMm).toBeCloseTo(inch(2.5), 9);
@@ -152,7 +152,7 @@ describe('ease = finished − body', () => {
     expect(table.rows.map((r) => r.key)).toEqual(['hip']);
   });
 
-  it('trouser thigh ease under 1 in is warned (Central Washington Univ. costume text, ch. 16: thigh at least 1 in; best check values: CWU / CP)', () => {
+  it('trouser thigh ease under 1 in is warned (Central Washington Univ. costume text, ch. 16: thigh at least 1 in; SOURCES.md §4)', () => {
     const table = easeTable(easeSizes([{ label: '12', body: { thigh: 22 }, finished: { thigh: 22.75 } }]), 'woven', 'trousers', 'in');
     expect(table.warnings.map((w) => [w.code, w.severity, w.size?.label])).toEqual([['thigh-ease-low', 'warning', '12']]);
     expect(table.warnings[0]?.text).toContain('thigh ease 3/4 in, under the 1 in');

@@ -1,7 +1,7 @@
 // Coverage grid and automatic selection of testers (server/domain/coverage.ts). The example cases
 // are invented and small enough to check by hand; the arithmetic is shown beside each value. The
 // properties are the issue's guarantees (issue 5 part 7) over random trials, with fast-check.
-// Trade facts used here are common practice [CP] (../shared/reference/trade-facts.md §7): 2–3
+// Trade facts used here are common practice [CP] (tests/reference/SOURCES.md §7.4): 2–3
 // testers per size, over-recruit about 20–30 % for drop-outs. fast-check is imported as a namespace,
 // as in units.test.ts: the default import draws a lint warning on every call.
 import * as fc from 'fast-check';

@@ -1,8 +1,8 @@
 // Size advice checked against outside sources. Each check names its source beside it with the
-// marker used in ../shared/reference/trade-facts.md: [SRC] a named source, [CALC] recomputed there,
+// marker used in tests/reference/SOURCES.md: [SRC] a named source, [CALC] calculated (how is said there),
 // [CP] common practice, [MEM] from memory; "by hand" = arithmetic shown in the comment.
 // Lengths are given in inches as the sources print them and converted with 1 in = 25.4 mm exactly
-// (international yard and pound agreement, 1959; trade-facts §5).
+// (international yard and pound agreement, 1959; SOURCES.md §5).
 import { governingMeasurements } from '../../../server/domain/garments';
 import type { MeasurementKey } from '../../../server/domain/measurements';
 import {
@@ -19,7 +19,7 @@ import type { LengthUnit } from '../../../server/domain/units';
 const IN = 25.4;
 const inch = (x: number) => x * IN;
 
-// ASTM D5585-11e1, Table 1, inches (trade-facts §1, [SRC: ASTM page]). The hip rows were not
+// ASTM D5585-11e1, Table 1, inches (SOURCES.md §1, [SRC: ASTM page]). The hip rows were not
 // retrieved, so tops are tested by bust and bottoms with waist-only charts from these rows; charts
 // that need a hip are invented below and say so.
 const D5585_SIZES = ['00', '0', '2', '4', '6', '8', '10', '12', '14', '16', '18', '20'];
@@ -147,7 +147,7 @@ describe('the size-fit tolerance rule: within the chart value ± half the interv
 
 // An invented trouser chart (the D5585 hip rows were not retrieved): a 2 in hip grade, waist from
 // D5585-11e1 curvy for sizes 10–16, and an inseam of 30 in in every size (inseam often ungraded,
-// trade-facts §2 [MEM]). Drafted for 66 in, an invented but usual drafting height [CP].
+// SOURCES.md §2 [MEM]). Drafted for 66 in, an invented but usual drafting height [CP].
 const trouserSizes = chartOf(
   { hip: [39, 41, 43, 45], waist: [29, 30.75, 32.5, 34.5], inseam: [30, 30, 30, 30] },
   ['10', '12', '14', '16'],
@@ -226,7 +226,7 @@ describe('the fuller-belly variant (studio margin, default 1 in)', () => {
 
 describe('cup variants', () => {
   // Invented: size 12 drafted with bust 38 3/4 and high bust 36 3/4 (2 in, the B-cup draft of
-  // trade-facts §3 [MEM]); a "C/D" variant adds 1 1/2 in to the bust.
+  // SOURCES.md §3 [MEM]); a "C/D" variant adds 1 1/2 in to the bust.
   const sizes = chartOf({ high_bust: [35.25, 36.75, 38.375], bust: [37.25, 38.75, 40.375] }, ['10', '12', '14']);
   const cupVariant: ChartVariant = { id: 'cd', name: 'C/D cup', kind: 'cup', overrides: { 'size-12': { bust: inch(40.25) } } };
   const dress = (body: SizeAdviceInput['body']) =>
@@ -259,7 +259,7 @@ describe('leg length', () => {
     expect(advice.legLength?.text).toContain('rough estimate');
   });
 
-  it('a tester 1 in shorter gets no change from the rough estimate (under 1/2 in, trade-facts §3 leg_length [CP])', () => {
+  it('a tester 1 in shorter gets no change from the rough estimate (under 1/2 in, SOURCES.md §3 leg_length [CP])', () => {
     expect(trousers({ hip: inch(41), height: inch(65) }).legLength?.direction).toBe('none');
   });
 

@@ -1,6 +1,6 @@
 // Lengths typed, stored and shown. Check values name their source beside them: the exact
-// definitions are those of the international yard and pound agreement of 1959 (trade-facts §5);
-// [CALC] = recomputed in trade-facts §5; "by hand" = exact arithmetic on those definitions, shown.
+// definitions are those of the international yard and pound agreement of 1959 (SOURCES.md §5);
+// [CALC] = calculated in tests/reference/SOURCES.md §5; "by hand" = exact arithmetic on those definitions, shown.
 import * as fc from 'fast-check';
 import {
   checkMeasurement,
@@ -10,6 +10,7 @@ import {
 } from '../../../server/domain/measurements';
 import {
   formatFabricLength,
+  formatFabricNeed,
   formatLength,
   inchesToMm,
   metresToMm,
@@ -46,7 +47,7 @@ describe('the exact definitions', () => {
     expect(mmOf(parseFabricLength('36 in', 'm'))).toBeCloseTo(914.4, 9);
   });
 
-  it('60 in = 152.4 cm, 54 in = 137.16 cm, 45 in = 114.3 cm (fabric widths, trade-facts §5 [CALC])', () => {
+  it('60 in = 152.4 cm, 54 in = 137.16 cm, 45 in = 114.3 cm (fabric widths, SOURCES.md §5 [CALC])', () => {
     expect(mmToCm(mmOf(parseLength('60 in', 'cm')))).toBeCloseTo(152.4, 9);
     expect(mmToCm(mmOf(parseLength('54"', 'cm')))).toBeCloseTo(137.16, 9);
     expect(mmToCm(mmOf(parseLength('45 inches', 'cm')))).toBeCloseTo(114.3, 9);
@@ -54,7 +55,7 @@ describe('the exact definitions', () => {
     expect(formatLength(1524, 'in')).toBe('60 in');
   });
 
-  it('5/8 in = 15.875 mm, which is not the 15 mm of a 1.5 cm seam allowance (trade-facts §5 [CALC])', () => {
+  it('5/8 in = 15.875 mm, which is not the 15 mm of a 1.5 cm seam allowance (SOURCES.md §5 [CALC])', () => {
     const fiveEighths = mmOf(parseLength('5/8"', 'cm'));
     expect(fiveEighths).toBeCloseTo(15.875, 9);
     expect(Math.abs(fiveEighths - 15)).toBeGreaterThan(0.8);
@@ -82,7 +83,7 @@ describe('parseLength accepts the forms of DESIGN.md "Units"', () => {
     ['1 3/8 Inch', 'cm', 34.925],
     ['1 3 / 8 in.', 'cm', 34.925],
     ['  1   3/8  ', 'in', 34.925],
-    // Printed-chart glyphs and typographic inch marks (trade-facts §1 writes 38¾).
+    // Printed-chart glyphs and typographic inch marks (printed charts write 38¾, SOURCES.md §1.1).
     ['1⅜', 'in', 34.925],
     ['1 ⅜″', 'cm', 34.925],
     ['1.375”', 'cm', 34.925],
@@ -268,6 +269,54 @@ describe('fabric lengths', () => {
   });
 });
 
+describe('a stated fabric need is shown rounded up, never short', () => {
+  // By hand on the exact definitions (1 yd = 914.4 mm, so 1/8 yd = 114.3 mm; 1 cm = 10 mm).
+  it.each<[number, FabricUnit, string]>([
+    // 2300 / 114.3 = 20.12 eighths → 21 eighths = 2 5/8 yd = 2400.3 mm; the nearest eighth,
+    // 2 1/2 yd = 20 × 114.3 = 2286 mm, would be 14 mm short.
+    [2300, 'yd', '2 5/8 yd'],
+    // exactly 20 eighths stays 2 1/2 yd (float noise does not push it a step up)
+    [2286, 'yd', '2 1/2 yd'],
+    [2286.01, 'yd', '2 5/8 yd'],
+    // 18 × 114.3 = 2057.4 mm, exact
+    [2057.4, 'yd', '2 1/4 yd'],
+    [914.4, 'yd', '1 yd'],
+    [1, 'yd', '1/8 yd'],
+    [0, 'yd', '0 yd'],
+    [2300, 'm', '2.30 m'],
+    // 230.04 cm → 231 cm, never 2.30 m
+    [2300.4, 'm', '2.31 m'],
+    [2299.6, 'm', '2.30 m'],
+    // 205.74 cm → 206 cm (nearest rounding happens to agree here)
+    [2057.4, 'm', '2.06 m'],
+    [0, 'm', '0.00 m'],
+  ])('%f mm in %s → %j', (mm, unit, text) => {
+    expect(formatFabricNeed(mm, unit)).toBe(text);
+  });
+
+  it('differs from the nearest-step display exactly where nearest rounding would be short', () => {
+    expect(formatFabricLength(2300, 'yd')).toBe('2 1/2 yd');
+    expect(formatFabricNeed(2300, 'yd')).toBe('2 5/8 yd');
+  });
+
+  it('for needs from 0 to 49 m, reads back at or above the need and less than one step above it', () => {
+    // One step: 1/8 yd = 114.3 mm or 1 cm = 10 mm (by hand). A hair of float slack.
+    const step = { yd: 914.4 / 8, m: 10 };
+    const slack = 1e-6;
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 49_000, noNaN: true }), fc.constantFrom<FabricUnit>('yd', 'm'), (mm, unit) => {
+        const shown = formatFabricNeed(mm, unit);
+        const back = mmOf(parseFabricLength(shown, unit));
+        expect(back).toBeGreaterThanOrEqual(mm - slack);
+        expect(back - mm).toBeLessThan(step[unit] + slack);
+        // Showing what was read back shows the same text (it is already a whole step).
+        expect(formatFabricNeed(back, unit)).toBe(shown);
+      }),
+      { numRuns: 500 },
+    );
+  });
+});
+
 describe('format then parse gives the value back within half the display step', () => {
   const units = fc.constantFrom<LengthUnit>('in', 'cm');
   // Half the step: 1/16 in = 1.5875 mm; 0.05 cm = 0.5 mm (by hand). A hair of float slack on top.
@@ -316,7 +365,7 @@ describe('format then parse gives the value back within half the display step', 
 });
 
 describe('the measurement vocabulary', () => {
-  it('has the survey keys of trade-facts §3, each with a label, a hint and a sensible range', () => {
+  it('has the survey keys of SOURCES.md §3, each with a label, a hint and a sensible range', () => {
     expect([...MEASUREMENT_KEYS].sort()).toEqual(
       [
         'bust', 'high_bust', 'under_bust', 'waist', 'high_hip', 'hip', 'thigh', 'knee', 'calf', 'height',
@@ -333,9 +382,9 @@ describe('the measurement vocabulary', () => {
     }
   });
 
-  it('admits every body of the charts in trade-facts §1 and refuses a hip of 30 mm', () => {
-    // ASTM D5585-11e1 size 00 bust 31 1/8 in and size 20 bust 46 in (trade-facts §1 [SRC]);
-    // Aldrich-attributed hip 84–127 cm (trade-facts §1 [2nd]).
+  it('admits every body of the charts in SOURCES.md §1 and refuses a hip of 30 mm', () => {
+    // ASTM D5585-11e1 size 00 bust 31 1/8 in and size 20 bust 46 in (SOURCES.md §1 [SRC]);
+    // Aldrich-attributed hip 84–127 cm (SOURCES.md §1 [2nd]).
     expect(checkMeasurement('bust', inchesToMm(31.125))).toBeNull();
     expect(checkMeasurement('bust', inchesToMm(46))).toBeNull();
     expect(checkMeasurement('hip', 840)).toBeNull();
