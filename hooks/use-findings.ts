@@ -81,6 +81,8 @@ export function useFindingActions(studioId: string, trialId: string) {
       async setTriage(body: TriageBody) {
         const update = await api<FindingUpdate>(findingsKeys.triage(studioId, trialId), { method: 'PUT', body });
         await apply(body, { triage: update.triage });
+        // The change table follows the triage ("will fix"): fetch the findings again in the background.
+        void mutate((key) => typeof key === 'string' && (key === base || key.startsWith(`${base}?`)));
         return update;
       },
       async addNote(body: NoteBody) {

@@ -2,10 +2,10 @@ import { randomUUID } from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import { loadConfig } from '../../server/config';
 import type { ReportDraft } from '../../server/domain/schemas/reports';
-import { refreshFindingsQuietly } from '../../server/findings/findings.service';
+import { addFindingNote, refreshFindingsQuietly, triageFinding } from '../../server/findings/findings.service';
 import { addPhoto } from '../../server/photos/photos.service';
 import { createStorage, type Storage } from '../../server/storage/storage';
-import { Application, Draft, DraftDownload, DraftFile, Enrollment, FabricNeed, Milestone, Pattern, PatternSize, Photo, Report, Studio, Trial, User } from '../models';
+import { Application, Draft, DraftDownload, DraftFile, Enrollment, FabricNeed, FindingTriage, Milestone, Pattern, PatternSize, Photo, Report, Studio, Trial, User } from '../models';
 import { renderFigure, type FigureView } from './demo-figures';
 // Only read inside functions, so the two seeders may import each other.
 import { DEMO_STUDIO, DEMO_TRIAL_SLUG } from './demo-studio';
@@ -39,7 +39,7 @@ export const DEMO_DRAFT_NOTES = [
   'Rise lengthened by 3/4 in (19 mm) at centre back and 1/4 in (6 mm) at centre front; the back crotch curve is unchanged.',
 ];
 /** Testers whose final report is still missing: the second tester of each of these sizes. */
-const LATE_SIZES = ['2', '4', '6', '16', '18'];
+const LATE_SIZES = ['2', '4', '6', '14', '16'];
 /** Of them, these have saved part of the report without sending it. */
 const STARTED_SIZES = ['2', '16'];
 const VIEWS: FigureView[] = ['front', 'side', 'back'];
@@ -119,6 +119,22 @@ export async function seedDemoReports(sequelize: Sequelize, options: { storage?:
     });
     // As after a tester's submission: the stored findings follow the new reports.
     if (created > 0) await refreshFindingsQuietly(trial);
+
+    // The grader has read draft 1: the short back rise was fixed in draft 2, the scoop (a grading
+    // problem) and the waist of one size will be fixed next, the leg length is personal fit.
+    const grader = await User.findOne({ where: { email: 'grader@demo.basted.test' } });
+    if (grader && (await FindingTriage.count({ where: { trialId: trial.id } })) === 0) {
+      await triageFinding(trial, grader, { kind: 'back-rise', direction: 'add', state: 'fixed', fixedInDraft: 2 });
+      await triageFinding(trial, grader, { kind: 'crotch-curve-scoop', direction: 'add', state: 'will-fix' });
+      await triageFinding(trial, grader, { kind: 'waist', direction: 'remove', state: 'will-fix' });
+      await triageFinding(trial, grader, { kind: 'leg-length', direction: 'remove', state: 'personal-fit' });
+      await triageFinding(trial, grader, { kind: 'leg-length', direction: 'add', state: 'personal-fit' });
+      await addFindingNote(trial, grader, {
+        kind: 'crotch-curve-scoop',
+        direction: 'add',
+        body: 'The back crotch curve needs more depth as the sizes grow: I will steepen the grade of the curve from size 12 up.',
+      });
+    }
 
     for (const t of photoTesters(testers)) {
       const fabric = finalContent(t, needs).fabric!;
@@ -213,6 +229,9 @@ const COLOURS: Record<string, string> = {
 
 /** The fabric a tester sews the finished pair in, from the fabric named in their application. */
 function garmentFabric(t: Tester): Omit<Fabric, 'usedMm'> {
+  // In the two largest sizes the legs do not fit across the narrow widths at all: those testers
+  // sewed the wide drill, and still needed more than stated (the fabric finding).
+  if (DEMO_FABRIC_SHORT_SIZES.includes(t.size.label)) return { kind: 'Stretch cotton drill', fibre: 'cotton, 2% elastane', widthMm: 1500, stretchPct: 3, napped: false };
   const planned = t.application.plannedFabric;
   if (/linen/i.test(planned)) return { kind: 'Mid-weight linen', fibre: 'linen', widthMm: 1500, stretchPct: 0, napped: false };
   if (/viscose/i.test(planned)) return { kind: 'Viscose twill', fibre: 'viscose', widthMm: 1140, stretchPct: 0, napped: false };

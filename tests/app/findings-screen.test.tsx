@@ -50,10 +50,15 @@ function finding(kind: string, direction: 'add' | 'remove', cls: FindingClass, c
       [0, 0],
       [count > 3 ? 3 : 0, 5],
     ]),
+    makerSizes: 2,
+    rateAbove: { rate: 0.25, p: 0.4 },
     trend: { z: 1, p: 0.3 },
     amountSlope: null,
+    sizeTrend: null,
     bodyCorrelation: null,
     sizes: [],
+    tests: [],
+    family: { size: 6, kindP: 0.01, chosen: true, level: 0.05, kindsTested: 4, kindsChosen: 4 },
     reasons: [`Reason for ${kind}.`],
     ...extra,
   };
@@ -67,14 +72,22 @@ const FINDINGS = [
 ];
 
 const COMPARISON: ComparisonRow[] = [
-  { kind: 'leg-length', direction: 'add', class: 'draft-wide', from: '1', to: '2', status: 'fixed', p: 0.004, sizes: [], countFrom: 6, testersFrom: 10, countTo: 1, testersTo: 9, reasons: ['Rate fell.'] },
-  { kind: 'waist', direction: 'remove', class: 'grading', from: '1', to: '2', status: 'still-present', p: 0.41, sizes: [], countFrom: 4, testersFrom: 10, countTo: 4, testersTo: 9, reasons: ['Rate held.'] },
-  { kind: 'hip', direction: 'add', class: 'personal-fit', from: '1', to: '2', status: 'not-enough-data', p: null, sizes: [], countFrom: 3, testersFrom: 10, countTo: 0, testersTo: 2, reasons: ['Too few.'] },
+  { kind: 'leg-length', direction: 'add', class: 'draft-wide', from: '1', to: '2', status: 'fixed', p: 0.004, pExact: '1/250', difference: { estimate: -0.49, interval: [-0.74, -0.11] }, sizes: [], countFrom: 6, testersFrom: 10, countTo: 1, testersTo: 9, reasons: ['Rate fell.'] },
+  { kind: 'waist', direction: 'remove', class: 'grading', from: '1', to: '2', status: 'improved', p: 0.05, pExact: '1/20', difference: { estimate: -0.18, interval: [-0.55, 0.25] }, sizes: [], countFrom: 4, testersFrom: 10, countTo: 2, testersTo: 9, reasons: ['Rate fell a little.'] },
+  { kind: 'hip', direction: 'add', class: 'personal-fit', from: '1', to: '2', status: 'personal-fit', p: null, pExact: null, difference: null, sizes: [], countFrom: 3, testersFrom: 10, countTo: 0, testersTo: 2, reasons: ['Personal fit.'] },
 ];
+const CHANGES = ['8', '10', '12', '14'].map((size) => ({
+  kind: 'leg-length', direction: 'add' as const, class: 'draft-wide' as const, size, amountMm: 25, interval: [19, 32] as [number, number], basis: 'median' as const, extrapolated: false,
+  note: 'The same change at every size.',
+}));
 
 const FIT = [
-  { size: '12', area: 'waist', n: 3, mean: 1.67, sd: 0.58, interval: [0.23, 3.1], flagged: true, reasons: ['Waist rated loose in size 12.'] },
-  { size: '8', area: 'waist', n: 2, mean: 0, sd: 0, interval: [0, 0], flagged: false, reasons: [] },
+  { size: '12', area: 'waist', n: 3, mean: 1.67, sd: 0.58, interval: [0.23, 2], p: 0.25, adjustedP: 1, flagged: false, hint: true, reasons: ['Waist rated loose in size 12, not confirmed.'] },
+  { size: '8', area: 'waist', n: 2, mean: 0, sd: 0, interval: [0, 0], p: 1, adjustedP: 1, flagged: false, hint: false, reasons: [] },
+];
+const FIT_AREAS = [
+  { area: 'rise', n: 10, mean: -1.2, interval: [-1.6, -0.8], whole: { p: 0.002, adjustedP: 0.008 }, withSize: null, flag: 'whole-range', reasons: ['Rise too short across the range.'] },
+  { area: 'waist', n: 5, mean: 0.6, interval: [-0.4, 1.6], whole: { p: 0.4, adjustedP: 1 }, withSize: null, flag: null, reasons: [] },
 ];
 const FABRIC = [
   { size: '14', widthMm: 1500, napped: false, needMm: 2000, n: 4, medianUsedMm: 2286, maxUsedMm: 2500, overNeed: 3, overNeedShare: 0.75, flagged: true, reasons: ['Ran short.'] },
@@ -87,6 +100,8 @@ type Call = { url: string; method: string; body: unknown };
 /** Serves a session in the given role, the trial, and findings; records every request. */
 function serve({ role = 'owner' as Role, result = 'full' as 'full' | 'none' | 'fail' | 'missing', extras = false } = {}) {
   const calls: Call[] = [];
+  // Like the server, the saved triage comes back with the findings when they are fetched again.
+  const triage = new Map<string, unknown>();
   const json = (body: unknown, status = 200) => new Response(JSON.stringify(body), { status });
   global.fetch = jest.fn(async (input: RequestInfo | URL, init?: RequestInit) => {
     const url = String(input);
@@ -101,8 +116,10 @@ function serve({ role = 'owner' as Role, result = 'full' as 'full' | 'none' | 'f
     if (url === '/api/studios/s1/trials') return json([{ id: 't1', title: 'Wide-leg trousers', state: 'running', pattern: { name: 'Wide-leg' }, milestones: [] }]);
     if (url === '/api/studios/s1/trials/t1') return json({ id: 't1', title: 'Wide-leg trousers', state: 'running', pattern: null, milestones: [] });
     if (url === `${BASE}/triage` && method === 'PUT') {
-      const b = body as { state: string; fixedInDraft?: number };
-      return json({ triage: { state: b.state, fixedInDraft: b.fixedInDraft ?? null, updatedAt: '2026-12-01T10:00:00Z', updatedBy: { id: 'u1', name: 'Me' } }, notes: [] });
+      const b = body as { kind: string; direction: string; state: string; fixedInDraft?: number };
+      const saved = { state: b.state, fixedInDraft: b.fixedInDraft ?? null, updatedAt: '2026-12-01T10:00:00Z', updatedBy: { id: 'u1', name: 'Me' } };
+      triage.set(`${b.kind}|${b.direction}`, saved);
+      return json({ triage: saved, notes: [] });
     }
     if (url === `${BASE}/notes` && method === 'POST') {
       return json({ triage: { state: 'open', fixedInDraft: null }, notes: [{ id: 'n1', author: { id: 'u1', name: 'Me' }, body: (body as { body: string }).body, createdAt: '2026-12-01T10:00:00Z' }] });
@@ -119,9 +136,10 @@ function serve({ role = 'owner' as Role, result = 'full' as 'full' | 'none' | 'f
           draft,
           drafts: ['1', '2'],
           testers: 10,
-          findings: FINDINGS,
+          findings: FINDINGS.map((f) => ({ ...f, ...(triage.has(`${f.kind}|${f.direction}`) ? { triage: triage.get(`${f.kind}|${f.direction}`) } : {}) })),
           ...(compare ? { comparison: COMPARISON } : {}),
-          ...(extras ? { fitRatings: FIT, fabric: FABRIC, unclearSteps: STEPS } : {}),
+          changes: extras ? CHANGES : [],
+          ...(extras ? { fitRatings: FIT, fitAreas: FIT_AREAS, fabric: FABRIC, unclearSteps: STEPS } : {}),
         },
       });
     }
@@ -161,10 +179,10 @@ describe('the findings screen of a trial', () => {
     expect(leg.getByText('Reason for leg-length.')).toBeTruthy();
     expect(within(row('waist|remove')!).getByText('! Grading')).toBeTruthy();
     expect(within(row('hip|add')!).getByText('Personal fit')).toBeTruthy();
-    expect(within(row('swayback|add')!).getByText('Too few reports')).toBeTruthy();
+    expect(within(row('swayback|add')!).getByText('Too few to judge')).toBeTruthy();
 
     fireEvent.press(screen.getByRole('checkbox', { name: 'Grading (1)' }));
-    fireEvent.press(screen.getByRole('checkbox', { name: 'Too few reports (1)' }));
+    fireEvent.press(screen.getByRole('checkbox', { name: 'Too few to judge (1)' }));
     await waitFor(() => expect(row('waist|remove')).toBeNull());
     expect(row('swayback|add')).toBeNull();
     expect(row('leg-length|add')).toBeTruthy();
@@ -202,9 +220,10 @@ describe('the findings screen of a trial', () => {
     const list = await screen.findByTestId('comparison');
     expect(calls.some((c) => c.url === `${BASE}?draft=2&compare=1,2`)).toBe(true);
     expect(within(screen.getByTestId('comparison-leg-length|add')).getByText('✓ Fixed')).toBeTruthy();
-    expect(within(screen.getByTestId('comparison-waist|remove')).getByText('✗ Still present')).toBeTruthy();
-    expect(within(screen.getByTestId('comparison-hip|add')).getByText('? Not enough data')).toBeTruthy();
-    expect(within(list).getByText(/draft 1: 6 of 10 → draft 2: 1 of 9 · p = 0\.004/)).toBeTruthy();
+    expect(within(screen.getByTestId('comparison-waist|remove')).getByText('↘ Improved, not confirmed')).toBeTruthy();
+    expect(within(screen.getByTestId('comparison-hip|add')).getByText('– Personal fit, nothing to fix')).toBeTruthy();
+    expect(within(list).getByText(/draft 1: 6 of 10 → draft 2: 1 of 9 · change −49 points \(95% −74 to −11\) · p = 0\.004 \(1\/250\)/)).toBeTruthy();
+    expect(within(list).getByText(/draft 1: 4 of 10 → draft 2: 2 of 9 · change −18 points \(95% −55 to \+25\) · p = 0\.050 \(1\/20\)/)).toBeTruthy();
     expect(within(list).getByText(/no test/)).toBeTruthy();
   });
 
@@ -229,6 +248,8 @@ describe('the findings screen of a trial', () => {
     await waitFor(() => expect(calls.filter((c) => c.method === 'PUT')).toHaveLength(1));
     expect(calls.find((c) => c.method === 'PUT')).toEqual({ url: `${BASE}/triage`, method: 'PUT', body: { kind: 'leg-length', direction: 'add', state: 'will-fix' } });
     expect(await screen.findByText(/^Triage: Will fix · Me/)).toBeTruthy();
+    // The findings are fetched again, so the change table can follow the new triage.
+    await waitFor(() => expect(calls.filter((c) => c.method === 'GET' && c.url === BASE).length).toBeGreaterThanOrEqual(2));
 
     fireEvent.press(within(screen.getByLabelText('Triage of Leg length, added')).getByRole('radio', { name: 'Fixed in a draft' }));
     const fixedIn = screen.getByLabelText('Fixed in draft');
@@ -258,16 +279,36 @@ describe('the findings screen of a trial', () => {
     serve({ extras: true });
     renderRouter(routes, { initialUrl: '/findings/t1' });
     expect(await screen.findByText('Fit ratings by size and area')).toBeTruthy();
-    expect(screen.getByText('! Size 12, waist: +1.7 (too loose or long), 3 ratings')).toBeTruthy();
+    // The area off across the range is flagged; a single size off on average is a hint.
+    expect(screen.getByText('! rise: too tight or short across the range (mean −1.2, 10 ratings)')).toBeTruthy();
+    expect(screen.getByText('? Size 12, waist: +1.7 (too loose or long), 3 ratings')).toBeTruthy();
+    expect(screen.getByLabelText('Size 12, waist: +1.7 from 3 ratings, a hint, not confirmed')).toBeTruthy();
     expect(screen.getByLabelText('Size 8, waist: 0.0 from 2 ratings')).toBeTruthy();
     // Fabric in the viewer's metres: only the size that ran over until every size is asked for.
-    expect(screen.getByText('! Size 14, 150.0 cm wide')).toBeTruthy();
+    expect(screen.getByText('! Size 14, 150 cm wide')).toBeTruthy();
     expect(screen.getByText('Stated need 2.00 m · median used 2.29 m · most used 2.50 m · 3 of 4 used more than stated')).toBeTruthy();
-    expect(screen.queryByText('Size 8, 150.0 cm wide, one-way layout')).toBeNull();
+    expect(screen.queryByText('Size 8, 150 cm wide, one-way layout')).toBeNull();
     fireEvent.press(screen.getByRole('button', { name: 'Show every size and width (2)' }));
-    expect(await screen.findByText('Size 8, 150.0 cm wide, one-way layout')).toBeTruthy();
+    expect(await screen.findByText('Size 8, 150 cm wide, one-way layout')).toBeTruthy();
     expect(screen.getByText('! Step 4: set the fly')).toBeTruthy();
     expect(screen.getByText('3 testers found it unclear: rewrite it')).toBeTruthy();
+  });
+
+  it('lists the changes for the next draft per size, in the reader’s unit, for the findings marked “will fix”', async () => {
+    serve({ extras: true });
+    renderRouter(routes, { initialUrl: '/findings/t1' });
+    expect(await screen.findByText('Changes for the next draft (from draft 2)')).toBeTruthy();
+    const table = within(screen.getByTestId('changes-leg-length|add'));
+    expect(table.getByText('Leg length, added · Whole draft')).toBeTruthy();
+    expect(table.getAllByText('2.5 cm')).toHaveLength(4);
+    expect(table.getAllByText('1.9 cm to 3.2 cm')).toHaveLength(4);
+    expect(screen.getByRole('button', { name: 'Download the changes as CSV' })).toBeTruthy();
+  });
+
+  it('says how to fill the change table when nothing is marked “will fix”', async () => {
+    serve();
+    renderRouter(routes, { initialUrl: '/findings/t1' });
+    expect(await screen.findByText(/No finding is marked “Will fix” yet/)).toBeTruthy();
   });
 
   it('leaves out the checks the reports do not carry', async () => {

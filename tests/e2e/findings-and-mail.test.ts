@@ -45,6 +45,10 @@ describe('the findings screen and the trial’s mail, in Chromium', () => {
     await page.getByRole('radiogroup', { name: 'Triage of Back crotch length, added' }).getByRole('radio', { name: 'Will fix' }).click();
     await page.getByRole('button', { name: 'Save the triage' }).click();
     await page.getByText(/^Triage: Will fix · /).waitFor();
+    // The change table follows the triage at once: the median, 3/4 in, at every size.
+    const changes = page.getByTestId('changes-back-rise|add');
+    await changes.waitFor();
+    expect(await changes.getByText('3/4 in', { exact: true }).count()).toBe(3);
     await page.getByLabel('Note on Back crotch length, added').fill('Add 3/4 in at the back crotch point in draft 2.');
     await page.getByRole('button', { name: 'Add the note' }).click();
     // The note appears in the list (a div, not the cleared text box).
@@ -59,6 +63,14 @@ describe('the findings screen and the trial’s mail, in Chromium', () => {
     await phone.locator('div', { hasText: /^Add 3\/4 in at the back crotch point in draft 2\.$/ }).first().waitFor();
     expect(await phone.getByRole('radiogroup', { name: 'Triage of Back crotch length, added' }).getByRole('radio', { name: 'Will fix' }).getAttribute('aria-checked')).toBe('true');
     await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'findings-phone.png') });
+    await phone.getByTestId('changes-back-rise|add').scrollIntoViewIfNeeded();
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'findings-changes-phone.png') });
+
+    // The trial page shows the same finding in the same words, and opens onto its reasons.
+    await phone.goto(`/trials/${trial.id}`);
+    await phone.getByRole('button', { name: /^Back crotch length, added: Whole draft, 8 of 9 testers/ }).click();
+    await phone.getByText(/^• 8 of 9 testers on draft 1 \(89%.*made “back crotch length, added”, median 3\/4 in\.$/).waitFor();
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'trial-findings-phone.png') });
 
     // A message the SMTP server refused earlier: the coordinator sees why and sends it again.
     const subject = `Due tomorrow: final report, Quay trousers ${Date.now()}`;

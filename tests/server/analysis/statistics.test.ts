@@ -1,6 +1,6 @@
 // Check values for the statistical building blocks. Each value's source is named beside it with
-// the marker used in ../shared/reference/trade-facts.md ([CALC] = recomputed there with SciPy;
-// [MEM] = from memory there) or, where computed in this file, how.
+// where it is written up in tests/reference/SOURCES.md (calculated = recomputed there; from memory
+// = said so there) or, where computed in this file, how.
 import { sampleCorrelation } from 'simple-statistics';
 import {
   cochranArmitage,
@@ -14,11 +14,11 @@ import { normalTwoSidedP } from '../../../server/analysis/distributions';
 
 describe('Wilson score interval', () => {
   it.each([
-    // Newcombe (1998a), Stat Med 17:857–872, example 81/263 (trade-facts §6: values [CALC], example set [MEM])
+    // Newcombe (1998a), Stat Med 17:857–872, example 81/263 (SOURCES.md §6.1: values calculated, example set from memory)
     [81, 263, 0.2553, 0.3662],
-    // Newcombe (1998a) example 0/20, the zero edge (trade-facts §6: [CALC], example set [MEM])
+    // Newcombe (1998a) example 0/20, the zero edge (SOURCES.md §6.1: calculated, example set from memory)
     [0, 20, 0, 0.1611],
-    // trade-facts §6 "Other checks", all [CALC]
+    // SOURCES.md §6.1, further checks, all calculated
     [4, 20, 0.0807, 0.416],
     [5, 10, 0.2366, 0.7634],
     [0, 3, 0, 0.5615],
@@ -46,7 +46,7 @@ describe('Wilson score interval', () => {
 describe("Fisher's exact test", () => {
   // Lady tasting tea: Fisher, The Design of Experiments (1935); 8 cups, 4 with milk first.
   // Rows: cups with milk first / tea first; columns: called milk first / called tea first.
-  it('all four identified: one-sided 1/70 = 0.014286, two-sided 0.028571 (Fisher 1935; trade-facts §6 [CALC])', () => {
+  it('all four identified: one-sided 1/70 = 0.014286, two-sided 0.028571 (Fisher 1935; SOURCES.md §6.3, calculated)', () => {
     const r = fisherExact(4, 0, 0, 4);
     expect(r.greater).toBeCloseTo(1 / 70, 6);
     expect(r.greater).toBeCloseTo(0.014286, 6);
@@ -54,7 +54,7 @@ describe("Fisher's exact test", () => {
     expect(r.less).toBeCloseTo(1, 10);
   });
 
-  it('three of four identified: 17/70 = 0.242857 one-sided (Fisher 1935; trade-facts §6 [CALC])', () => {
+  it('three of four identified: 17/70 = 0.242857 one-sided (Fisher 1935; SOURCES.md §6.3, calculated)', () => {
     const r = fisherExact(3, 1, 1, 3);
     expect(r.greater).toBeCloseTo(17 / 70, 6);
     expect(r.greater).toBeCloseTo(0.242857, 6);
@@ -82,7 +82,7 @@ describe('Ordinary least squares', () => {
     228.9, 668.4, 449.2, 0.2,
   ];
 
-  it('matches the NIST StRD Norris certified values (trade-facts §6 [SRC: certified values, via SciPy])', () => {
+  it('matches the NIST StRD Norris certified values (SOURCES.md §6.9: certified values)', () => {
     expect(norrisX).toHaveLength(36);
     expect(norrisY).toHaveLength(36);
     const fit = olsFit(norrisX, norrisY);

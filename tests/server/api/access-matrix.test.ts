@@ -228,6 +228,7 @@ const MATRIX: Record<string, Row> = {
   'GET /api/studios/:studioId/trials/:trialId/reports': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports` }) },
   'GET /api/studios/:studioId/trials/:trialId/reports.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reports.csv` }) },
   'GET /api/studios/:studioId/trials/:trialId/findings': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings` }) },
+  'GET /api/studios/:studioId/trials/:trialId/findings/changes.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/changes.csv` }) },
   'PUT /api/studios/:studioId/trials/:trialId/findings/triage': {
     allow: STAFF,
     call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/triage`, body: { kind: 'back-rise', direction: 'add', state: 'will-fix' } }),

@@ -1,6 +1,6 @@
 import { GetObjectCommand, HeadObjectCommand } from '@aws-sdk/client-s3';
 import sharp from 'sharp';
-import { Application, Draft, DraftDownload, DraftFile, Enrollment, FindingSnapshot, Milestone, Pattern, Photo, Report, Trial } from '../../../db/models';
+import { Application, Draft, DraftDownload, DraftFile, Enrollment, FindingSnapshot, Milestone, Pattern, PatternSize, Photo, Report, Trial } from '../../../db/models';
 import { DEMO_FABRIC_SHORT_SIZES, DEMO_FLY_STEP, DEMO_WAIST_SIZE, demoPdf, openDemoStorage } from '../../../db/seeders/demo-reports';
 import { DEMO_PATTERN_NAME, DEMO_TRIAL_SLUG, seedDemoStudio } from '../../../db/seeders/demo-studio';
 import type { AnalysisOutput, Finding } from '../../../server/analysis/types';
@@ -38,6 +38,7 @@ describe('the demo trial: two drafts, check-ins and final reports, photos, and f
     const object = await t.storage.client.send(new GetObjectCommand({ Bucket: t.config.s3.buckets[bucket], Key: key }));
     return Buffer.from(await object.Body!.transformToByteArray());
   };
+  const CM = { lengthUnit: 'cm', fabricUnit: 'm' } as const;
   const finding = (result: AnalysisOutput | null, kind: string, direction: 'add' | 'remove') => {
     const f = result?.findings.find((x) => x.kind === kind && x.direction === direction);
     if (!f) throw new Error(`no finding ${kind} ${direction} in draft ${result?.draft}`);
@@ -98,7 +99,7 @@ describe('the demo trial: two drafts, check-ins and final reports, photos, and f
   });
 
   it('draft 1: the short back rise is draft-wide, the back crotch scoop grows with size, the leg follows each inseam, the waist of size 10 stands out', async () => {
-    const { result } = await findingsFor(trial, { draft: '1' });
+    const { result } = await findingsFor(trial, { draft: '1' }, CM);
     expect(result!.testers).toBe(enrollments.length);
 
     const rise = finding(result, 'back-rise', 'add');
@@ -120,17 +121,36 @@ describe('the demo trial: two drafts, check-ins and final reports, photos, and f
     expect(waist.sizes).toEqual([DEMO_WAIST_SIZE]);
   });
 
-  it('draft 1 → 2: the back rise is fixed, the problems draft 2 did not touch are still present', async () => {
-    const { result } = await findingsFor(trial, { compare: ['1', '2'] });
+  it('draft 1 → 2: the back rise is fixed, the problems draft 2 did not touch are not, personal fit stays personal fit', async () => {
+    const { result } = await findingsFor(trial, { compare: ['1', '2'] }, CM);
     const row = (kind: string, direction: string) => result!.comparison!.find((c) => c.kind === kind && c.direction === direction);
     expect(row('back-rise', 'add')).toMatchObject({ status: 'fixed', class: 'draft-wide' });
     expect(row('back-rise', 'add')!.countTo).toBeLessThanOrEqual(1);
-    expect(row('crotch-curve-scoop', 'add')!.status).toBe('still-present');
+    expect(row('back-rise', 'add')!.difference!.interval[1]).toBeLessThan(0);
+    expect(['still-present', 'improved']).toContain(row('crotch-curve-scoop', 'add')!.status);
     expect(row('waist', 'remove')).toMatchObject({ status: 'still-present', sizes: [DEMO_WAIST_SIZE] });
+    expect(row('leg-length', 'remove')!.status).toBe('personal-fit');
+  });
+
+  it('the grader marked the scoop and the waist "will fix": the change table of draft 2 lists them per size, in the reader\'s unit', async () => {
+    const { result } = await findingsFor(trial, { draft: '2' }, { lengthUnit: 'in', fabricUnit: 'yd' });
+    const changes = result!.changes!;
+    expect([...new Set(changes.map((c) => `${c.kind}|${c.direction}`))].sort()).toEqual(['crotch-curve-scoop|add', 'waist|remove']);
+    const sizes = (await PatternSize.findAll({ where: { patternId: trial.patternId }, order: [['position', 'ASC']] })).map((s) => s.label);
+    const scoop = changes.filter((c) => c.kind === 'crotch-curve-scoop');
+    expect(scoop.map((c) => c.size)).toEqual(sizes);
+    expect(scoop.every((c) => c.basis === 'fitted')).toBe(true);
+    expect(scoop[scoop.length - 1]!.amountMm!).toBeGreaterThan(scoop[0]!.amountMm!);
+    const waist = changes.filter((c) => c.kind === 'waist' && c.amountMm !== null);
+    expect(waist.map((c) => c.size)).toEqual([DEMO_WAIST_SIZE]);
+    expect(waist[0]!.amountMm!).toBeLessThan(0);
+    // Reasons are written for this reader: inches, no millimetres.
+    expect(result!.findings.flatMap((f) => f.reasons).join(' ')).not.toMatch(/\d mm\b/);
+    expect(finding(result, 'crotch-curve-scoop', 'add').reasons.join(' ')).toMatch(/“scoop the crotch curve, added”, median \d[\d /]* in/);
   });
 
   it('draft 2: the same grading, personal-fit and size-specific findings; fabric short in sizes 18 and 20 only; the fly front unclear to several testers', async () => {
-    const { result } = await findingsFor(trial, { draft: '2' });
+    const { result } = await findingsFor(trial, { draft: '2' }, CM);
     expect(result!.draft).toBe('2');
     expect(finding(result, 'crotch-curve-scoop', 'add').class).toBe('grading');
     expect(finding(result, 'leg-length', 'remove').class).toBe('personal-fit');

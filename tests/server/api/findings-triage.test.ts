@@ -142,6 +142,32 @@ describe('stored findings, triage, notes, thresholds and "other" alterations', (
     const forgotten = await request(t.app).get(`${base()}/findings`).set(as(w.users.grader));
     expect(forgotten.body.result.findings.map((f: { kind: string }) => f.kind)).toContain('other: Took in the BACK waist seam');
   });
+
+  it('a finding marked "will fix" gets its change per size, on screen and as CSV in the reader\'s unit', async () => {
+    await request(t.app).put(`${base()}/findings/triage`).set(as(w.users.grader)).send({ kind: 'back-rise', direction: 'add', state: 'open' }).expect(200);
+    const none = await request(t.app).get(`${base()}/findings/changes.csv`).set(as(w.users.grader));
+    expect(none.status).toBe(200);
+    expect(none.text.trim().split('\r\n')).toHaveLength(1); // the header alone: nothing marked "will fix"
+    await request(t.app).put(`${base()}/findings/triage`).set(as(w.users.grader)).send({ kind: 'back-rise', direction: 'add', state: 'will-fix' }).expect(200);
+    const json = await request(t.app).get(`${base()}/findings`).set(as(w.users.grader));
+    const rows = json.body.result.changes.filter((c: { kind: string }) => c.kind === 'back-rise');
+    expect(rows.map((c: { size: string }) => c.size)).toEqual(['8', '10', '12']);
+    // Draft-wide: the median of the amounts (here nine of 3/4 in and one of 20 mm) at every size.
+    for (const row of rows) expect(row).toMatchObject({ basis: 'median', amountMm: 0.75 * IN });
+    // The grader reads inches (the account default): 3/4 in, and the millimetres beside it.
+    const csv = await request(t.app).get(`${base()}/findings/changes.csv`).set(as(w.users.grader));
+    expect(csv.status).toBe(200);
+    expect(csv.headers['content-type']).toMatch(/text\/csv/);
+    expect(csv.headers['content-disposition']).toMatch(/draft-changes\.csv/);
+    const lines = csv.text.trim().split('\r\n');
+    expect(lines[0]).toBe('draft,finding,class,size,change,from,to,change_mm,from_mm,to_mm,basis,extrapolated,note');
+    expect(lines.slice(1).filter((l) => l.startsWith('1,"Back crotch length, added",draft-wide,'))).toHaveLength(3);
+    expect(lines[1]).toMatch(/^1,"Back crotch length, added",draft-wide,8,3\/4 in,/);
+    expect(lines[1]).toContain(',19,19,19,median,no,'); // 3/4 in = 19.05 mm, to a tenth
+    // A tester is not staff: no change table for them.
+    const tester = await createUser('triage-outsider');
+    expect((await request(t.app).get(`${base()}/findings/changes.csv`).set(as(tester))).status).toBe(404);
+  });
 });
 
 describe('which report speaks for a tester in each draft', () => {
