@@ -27,10 +27,10 @@ describe('AnalysisSettingsCard', () => {
   it('shows the studio’s own value, the default as a hint, and sends only what changed', async () => {
     const calls = serve({ draftWideMinLowerBound: 0.3 });
     wrap(<AnalysisSettingsCard studioId="s1" canEdit />);
-    const bound = await screen.findByLabelText('Whole draft: lowest likely rate');
+    const bound = await screen.findByLabelText('Whole draft: rate to exceed');
     expect(bound.props.value).toBe('0.3');
-    expect(screen.getByText(/lower end of the 95 % interval.*Default 0.25\./)).toBeTruthy();
-    fireEvent.changeText(screen.getByLabelText('Significance level'), '0.01');
+    expect(screen.getByText(/shown to be above this.*Default 0.25\./)).toBeTruthy();
+    fireEvent.changeText(screen.getByLabelText('Error level'), '0.01');
     fireEvent.changeText(bound, '');
     fireEvent.press(screen.getByRole('button', { name: 'Save thresholds' }));
     await screen.findByText(/Thresholds saved/);
@@ -50,7 +50,7 @@ describe('AnalysisSettingsCard', () => {
     expect(calls.some((c) => c.method === 'PATCH')).toBe(false);
 
     fireEvent.changeText(screen.getByLabelText('Fewest testers for findings'), '');
-    fireEvent.changeText(screen.getByLabelText('Significance level'), '0.5');
+    fireEvent.changeText(screen.getByLabelText('Error level'), '0.5');
     fireEvent.press(screen.getByRole('button', { name: 'Save thresholds' }));
     await screen.findByText(/must be at most 0.2/);
   });
@@ -58,7 +58,7 @@ describe('AnalysisSettingsCard', () => {
   it('is read-only for staff who are not the owner', async () => {
     serve({ alpha: 0.01 });
     wrap(<AnalysisSettingsCard studioId="s1" canEdit={false} />);
-    const alpha = await screen.findByLabelText('Significance level');
+    const alpha = await screen.findByLabelText('Error level');
     await waitFor(() => expect(alpha.props.value).toBe('0.01'));
     expect(alpha.props.editable).toBe(false);
     expect(screen.queryByRole('button', { name: 'Save thresholds' })).toBeNull();

@@ -206,7 +206,7 @@ describe('the amount chart', () => {
     const bySize = [stats('8', 2, 1, { meanMm: -25.4 }), stats('10', 2, 0)];
     render(<AmountChart bySize={bySize} fit={null} unit="in" name="Waist, taken out" initialWidth={340} />);
     expect(screen.queryByTestId('amount-line', HIDDEN)).toBeNull();
-    expect(screen.getByLabelText(/size 8: -1 in on average from 1 tester\. Too few amounts/)).toBeTruthy();
+    expect(screen.getByLabelText(/size 8: −1 in on average from 1 tester\. Too few amounts/)).toBeTruthy();
   });
 });
 
