@@ -80,7 +80,7 @@ export function compareDrafts(
       const exact = fisherGreaterExact(kA, a.length - kA, kB, b.length - kB);
       const p = toNumber(exact);
       const shownP = fractionText(exact);
-      const pWords = `Fisher one-sided ${pValue(p)}${shownP && exact.den > 1n && exact.num > 0n ? ` (exactly ${shownP})` : ''}`;
+      const pWords = `Fisher one-sided ${pValue(p)}${shownP ? ` (exactly ${shownP})` : ''}`;
       const lower = kB / b.length < rateA;
       const confirmed = lower && lessThan(exact, alpha);
       let status: ComparisonStatus;

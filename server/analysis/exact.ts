@@ -70,7 +70,7 @@ export function toNumber(f: Fraction): number {
   return Number((f.num * scale) / f.den) / 1e30;
 }
 
-/** "1/20" for a fraction small enough to read, else null. */
+/** "1/20" for a fraction small enough to read, else null (and null for 0 and 1, which read as they are). */
 export function fractionText(f: Fraction): string | null {
-  return f.den <= 100000n ? `${f.num}/${f.den}` : null;
+  return f.den > 1n && f.num > 0n && f.den <= 100000n ? `${f.num}/${f.den}` : null;
 }
