@@ -47,7 +47,7 @@ export function FindingRow({ studioId, trialId, finding: f, drafts, unit, canTri
         </View>
       </Pressable>
       {!open && f.reasons[0] ? (
-        <AppText variant="caption" numberOfLines={2} style={styles.firstReason}>
+        <AppText variant="caption" style={styles.firstReason}>
           {f.reasons[0]}
         </AppText>
       ) : null}

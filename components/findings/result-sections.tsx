@@ -54,7 +54,8 @@ export function FitRatingsSection({ cells, areas, sizes }: { cells: readonly Fit
           ))}
         </View>
       ))}
-      <ScrollView horizontal>
+      {usedSizes.length > 4 ? <AppText variant="caption">{`Sizes ${usedSizes[0]} to ${usedSizes[usedSizes.length - 1]} across: on a narrow screen, scroll the table sideways →`}</AppText> : null}
+      <ScrollView horizontal focusable role="region" aria-label="Fit ratings by area and size, scrolls sideways on a narrow screen" persistentScrollbar>
         <View role="table" aria-label="Fit ratings by area and size">
           <View style={styles.tr} role="row">
             <AppText role="columnheader" style={[styles.th, styles.areaCol]}>

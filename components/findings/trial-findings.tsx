@@ -171,17 +171,17 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit,
 
       <View style={[styles.extras, wide && styles.extrasWide]}>
         {result.fitRatings ? (
-          <View style={styles.extra}>
+          <View style={wide ? styles.extraWide : undefined}>
             <FitRatingsSection cells={result.fitRatings} areas={result.fitAreas ?? []} sizes={sizes} />
           </View>
         ) : null}
         {result.fabric ? (
-          <View style={styles.extra}>
+          <View style={wide ? styles.extraWide : undefined}>
             <FabricSection cells={result.fabric} lengthUnit={lengthUnit} fabricUnit={fabricUnit} />
           </View>
         ) : null}
         {result.unclearSteps ? (
-          <View style={styles.extra}>
+          <View style={wide ? styles.extraWide : undefined}>
             <UnclearStepsSection steps={result.unclearSteps} />
           </View>
         ) : null}
@@ -194,5 +194,6 @@ const styles = StyleSheet.create({
   list: { gap: space.sm },
   extras: { gap: space.lg },
   extrasWide: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'flex-start' },
-  extra: { flexGrow: 1, flexBasis: 320, minWidth: 0 },
+  // A basis only in the row: in the phone's column it would be a fixed height, and the cards overlap.
+  extraWide: { flexGrow: 1, flexBasis: 320, minWidth: 0 },
 });

@@ -80,11 +80,11 @@ export function fitRatingCells(input: AnalysisInput, draft: string, thresholds?:
       `Size ${size}, ${area}: mean rating ${num(m, 1)} from ${testersWord(n)}` +
       (interval ? ` (${Math.round(t.confidence * 100)}% interval ${num(interval[0], 1)} to ${num(interval[1], 1)})` : '');
     const reasons = flagged
-      ? [`${head} — ${word(m)}; the sign test holds over the sizes of this area (${pValue(p)}, Holm-adjusted ${pValue(adjustedP).replace('p ', '')}).`]
+      ? [`${head} — ${word(m)}; the sign test holds over the sizes of this area (${pValue(p)}, Holm-adjusted ${pValue(adjustedP)}).`]
       : hint
         ? [
             `${head} — ${word(m)} on average, but not confirmed: with ${n} ratings a mean this far off happens by chance ` +
-              `(sign test ${pValue(p)}, Holm over the sizes of this area ${pValue(adjustedP).replace('p ', '')}). Worth a look at the photos, not a change on its own.`,
+              `(sign test ${pValue(p)}, after Holm over the sizes of this area ${pValue(adjustedP)}). Worth a look at the photos, not a change on its own.`,
           ]
         : [];
     return { size, area, n, mean: m, sd, interval, p, adjustedP, flagged, hint, reasons };
@@ -123,13 +123,13 @@ export function fitRatingAreas(input: AnalysisInput, draft: string, thresholds?:
       reasons.push(
         `${area}: ${word(m)} across the range — mean ${num(m, 1)} from ${testersWord(n)}` +
           (interval ? ` (${Math.round(t.confidence * 100)}% interval ${num(interval[0], 1)} to ${num(interval[1], 1)})` : '') +
-          `; sign test ${pValue(wholeP)}, Holm-adjusted over the areas ${pValue(wholeAdj).replace('p ', '')}.`,
+          `; sign test ${pValue(wholeP)}, Holm-adjusted over the areas ${pValue(wholeAdj)}.`,
       );
     }
     if (withSize && fit) {
       reasons.push(
         `${area}: the rating ${fit.slope > 0 ? 'rises' : 'falls'} by ${num(Math.abs(fit.slope), 2)} per size step ` +
-          `(${fit.slope > 0 ? 'looser or longer' : 'tighter or shorter'} in the larger sizes; ${pValue(fit.slopeP)}, Holm-adjusted ${pValue(slopeAdj).replace('p ', '')}): look at the grade.`,
+          `(${fit.slope > 0 ? 'looser or longer' : 'tighter or shorter'} in the larger sizes; ${pValue(fit.slopeP)}, Holm-adjusted ${pValue(slopeAdj)}): look at the grade.`,
       );
     }
     return {

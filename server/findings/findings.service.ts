@@ -30,7 +30,7 @@ const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement
  * Bumped whenever the engine's rules or output change, so stored snapshots from an older engine
  * are computed again rather than served.
  */
-const ENGINE_VERSION = 2;
+const ENGINE_VERSION = 3;
 
 /** How a coordinator read each "other" alteration of a trial: its words (as otherTextKey) → kind. */
 export async function otherMappingsOf(trialId: string): Promise<Map<string, string>> {
