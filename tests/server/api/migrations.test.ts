@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { Client } from 'pg';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { createSequelize } from '../../../db/sequelize';
-import { migrateDownAll, migrateUp } from '../../../db/migrator';
+import { createMigrator, migrateDownAll, migrateUp } from '../../../db/migrator';
 import { migrations } from '../../../db/migrations';
 import { DEMO_ACCOUNTS, seedDemoStudio } from '../../../db/seeders/demo-studio';
 
@@ -59,6 +59,22 @@ describe('migrations', () => {
       } finally {
         await other.close();
       }
+    });
+  });
+
+  it('report versions: down removes the version and prefilled columns of reports, up adds them back', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      await migrateUp(sequelize);
+      const columns = async () =>
+        (
+          await sequelize.query<{ name: string }>("SELECT column_name::text AS name FROM information_schema.columns WHERE table_name = 'reports' ORDER BY 1", { type: QueryTypes.SELECT })
+        ).map((r) => r.name);
+      expect(await columns()).toEqual(expect.arrayContaining(['version', 'prefilled']));
+      await createMigrator(sequelize).down({ to: '0011-report-saves' });
+      expect(await columns()).not.toContain('version');
+      expect(await columns()).not.toContain('prefilled');
+      await migrateUp(sequelize);
+      expect(await columns()).toEqual(expect.arrayContaining(['version', 'prefilled']));
     });
   });
 

@@ -115,7 +115,7 @@ describe('reminders to testers', () => {
 
     const url = `/api/me/enrollments/${tester.enrollment.id}/reports/final`;
     const auth = { Authorization: bearer(tester.user, h.t.config) };
-    await request(h.t.app).put(url).set(auth).send({ sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Fits well.' }).expect(200);
+    await request(h.t.app).put(url).set(auth).send({ baseVersion: 0, changes: { sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Fits well.' } }).expect(200);
     expect((await request(h.t.app).post(`${url}/submit`).set(auth)).status).toBe(200);
     expect(await queued.reload()).toMatchObject({ status: 'cancelled', lastError: 'Not sent: the tester has submitted it.' });
     await tick(new Date(threeDays.sendAt.getTime() + 10 * 60_000).toISOString());
