@@ -1,6 +1,7 @@
 import path from 'node:path';
 import { Application, Draft, Enrollment, Membership, Milestone, Pattern, PatternSize, Report, Trial, type User } from '../../db/models';
 import { addMember, createStudio, createUser, enrolTester, TEST_PASSWORD } from '../support/factories';
+import { optOutUrl } from '../../server/mail/opt-out';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 
 const PHONE = { width: 390, height: 844 };
@@ -115,6 +116,20 @@ describe('My trials after finishing, and steps that ask before they act', () => 
     await page.getByRole('button', { name: 'Yes, remove' }).click();
     await page.getByText(coordinator.email).waitFor({ state: 'detached' });
     expect(await Membership.findByPk(coordinatorMembership.id)).toBeNull();
+    expect(h.errors).toEqual([]);
+  });
+
+  it('the opt-out link in a reminder opens a page that asks; the button stops the reminders', async () => {
+    const user = await createUser('opt-out-reader');
+    const context = await h.newContext();
+    const page = await h.newPage(context, PHONE);
+    await page.goto(optOutUrl(h.t.config, user.id, 'reminders'));
+    await page.getByRole('heading', { name: 'Stop reminders about due dates?' }).waitFor();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'opt-out-ask-phone.png'), fullPage: true });
+    expect((await user.reload()).mailReminders).toBe(true);
+    await page.getByRole('button', { name: 'Stop reminders about due dates' }).click();
+    await page.getByRole('heading', { name: 'Done: no more of this mail' }).waitFor();
+    expect((await user.reload()).mailReminders).toBe(false);
     expect(h.errors).toEqual([]);
   });
 });
