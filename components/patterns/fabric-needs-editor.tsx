@@ -32,6 +32,8 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   const [newWidth, setNewWidth] = useState<number | null>(null);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
+  // Cells whose typed text could not be read: saving now would drop them silently.
+  const [unreadable, setUnreadable] = useState<Record<string, string>>({});
 
   const columns = widths.flatMap((w) => [
     { key: columnKey(w, false), label: `${formatLength(w, lengthUnit)} wide` },
@@ -40,6 +42,11 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   const rows = pattern.chart.sizes.map((s) => ({ key: s.id, label: s.label, values: values[s.id] ?? {} }));
 
   const save = async () => {
+    const bad = Object.entries(unreadable);
+    if (bad.length) {
+      setMessage({ tone: 'error', text: `Not saved: ${bad.map(([label, why]) => `${label} ${why}`).join('; ')}. Correct ${bad.length === 1 ? 'it' : 'them'} first; nothing was changed.` });
+      return;
+    }
     setBusy(true);
     setMessage(null);
     const needs = Object.entries(values).flatMap(([sizeId, byColumn]) =>
@@ -78,6 +85,12 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
           parse={(text) => parseFabricLength(text, fabricUnit)}
           format={(mm) => formatFabricLength(mm, fabricUnit)}
           onChange={(row, col, mm) => setValues((v) => ({ ...v, [row]: { ...v[row], [col]: mm } }))}
+          onInputError={(label, why) =>
+            setUnreadable((now) => {
+              const { [label]: _gone, ...rest } = now;
+              return why === null ? rest : { ...rest, [label]: why };
+            })
+          }
         />
       )}
       {canEdit ? (
