@@ -18,6 +18,7 @@ import { useIsWide } from '@/hooks/use-is-wide';
 import { saveProfile, useProfile, type Profile } from '@/hooks/use-profile';
 import { MEASUREMENTS } from '@/server/domain/measurements';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, profileSchema } from '@/server/domain/schemas/profile';
+import { deviceTimeZone } from '@/server/domain/time-zones';
 
 type Values = z.input<typeof profileSchema>;
 
@@ -33,7 +34,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
   const [saved, setSaved] = useState(false);
   // Fields whose typed text could not be read: saving waits until they are fixed.
   const [unreadable, setUnreadable] = useState<string[]>([]);
-  const { control, handleSubmit, setError, formState } = useForm<Values>({
+  const { control, handleSubmit, setError, setValue, formState } = useForm<Values>({
     resolver: zodResolver(profileSchema),
     defaultValues: {
       name: profile.name,
@@ -47,6 +48,8 @@ function ProfileForm({ profile }: { profile: Profile }) {
     },
   });
   const unit = useWatch({ control, name: 'lengthUnit' }) ?? 'in';
+  const zone = useWatch({ control, name: 'timeZone' });
+  const [device] = useState(deviceTimeZone);
 
   const submit = handleSubmit(async (values) => {
     setSaved(false);
@@ -100,6 +103,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
             />
           )}
         />
+        {zone !== device ? <Button label={`Use this device’s zone: ${device}`} tone="quiet" onPress={() => setValue('timeZone', device, { shouldDirty: true })} /> : null}
         <Controller
           control={control}
           name="experience"
