@@ -55,14 +55,24 @@ function ProfileForm({ profile }: { profile: Profile }) {
     setSaved(false);
     setFormError(null);
     if (unreadable.length) {
-      setFormError(`Please correct: ${unreadable.join(', ')}.`);
+      setFormError(`Not saved: ${unreadable.join(', ')} could not be read. Correct ${unreadable.length === 1 ? 'it' : 'them'} first.`);
       return;
     }
     try {
       await saveProfile(values);
       setSaved(true);
     } catch (error) {
-      setFormError(applyApiError(error, setError, ['name', 'lengthUnit', 'fabricUnit', 'timeZone', 'experience', 'fitNotes', 'measurementsMm', 'mail']));
+      setFormError(
+        applyApiError(error, setError, ['name', 'lengthUnit', 'fabricUnit', 'timeZone', 'experience', 'fitNotes', 'measurementsMm', 'mail'], {
+          name: 'Name',
+          timeZone: 'Time zone',
+          experience: 'Sewing experience',
+          fitNotes: 'Fit notes',
+          measurementsMm: 'Body measurements',
+          mail: 'E-mail',
+          ...Object.fromEntries(MEASUREMENTS.map((m) => [`measurementsMm.${m.key}`, m.label])),
+        }),
+      );
     }
   });
 

@@ -30,7 +30,7 @@ export default function SignUpScreen() {
       const session = await signUp(values);
       router.replace(safeNext(next) ?? landingFor(session));
     } catch (error) {
-      setFormError(applyApiError(error, setError, ['name', 'email', 'password', 'timeZone']));
+      setFormError(applyApiError(error, setError, ['name', 'email', 'password', 'timeZone'], { name: 'Your name', email: 'E-mail', password: 'Password', timeZone: 'Time zone' }));
     }
   });
 

@@ -5,6 +5,7 @@ import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
+import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { updateTrial, type TrialDetail } from '@/hooks/use-trials';
 import { MILESTONE_KINDS, MILESTONE_LABELS, milestoneOrderProblems, TRIAL_STATE_LABELS, TRIAL_STATES, type MilestoneKind } from '@/server/domain/trials';
@@ -65,7 +66,8 @@ export function CallEditor({ studioId, trial, timeZone, canEdit }: Props) {
       setMessage({ tone: 'success', text: past.length ? `Call and dates saved. In the past: ${past.join(', ')}.` : 'Call and dates saved.' });
     } catch (error) {
       if (error instanceof ApiError && error.fields) setErrors(error.fields);
-      setMessage({ tone: 'error', text: error instanceof Error ? error.message : 'Not saved.' });
+      const labels = { title: 'Title', callText: 'Call for testers', requirements: 'Requirements', state: 'State', ...Object.fromEntries(MILESTONE_KINDS.map((k) => [`milestones.${k}`, MILESTONE_LABELS[k]])) };
+      setMessage({ tone: 'error', text: describeApiError(error, labels, 'Not saved.') });
     } finally {
       setBusy(false);
     }

@@ -64,6 +64,10 @@ describe('a fit trial from call to selection, in Chromium', () => {
     expect((await staff.request.post('/api/auth/sign-in', { data: { email: coordinator.email, password: TEST_PASSWORD } })).status()).toBe(200);
     const page = await h.newPage(staff, WIDE);
     await page.goto('/trials');
+    // No pattern chosen: the banner names the field by its label, not by its name in the code.
+    await page.getByLabel('Trial title').fill('No pattern yet');
+    await page.getByRole('button', { name: 'Create trial' }).click();
+    await page.getByText('One answer needs a change. Please check: Pattern to test.').waitFor();
     await page.getByRole('radio', { name: 'Barrel-leg trousers' }).click();
     await page.getByLabel('Trial title').fill('Barrel-leg trousers: fit round one');
     await page.getByRole('button', { name: 'Create trial' }).click();
