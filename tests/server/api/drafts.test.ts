@@ -79,7 +79,7 @@ describe('draft files', () => {
     await done.enrollment.update({ status: 'finished' });
     const gone = await enrolTester(trialId, left.id, sizeId);
     await gone.enrollment.update({ status: 'dropped' });
-    const file = await DraftFile.findOne();
+    const file = await DraftFile.findOne({ include: [{ model: Draft, as: 'draft', where: { patternId }, required: true }] });
     expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(finished))).status).toBe(200);
     expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(finished))).status).toBe(200);
     expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(left))).status).toBe(403);
