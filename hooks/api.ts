@@ -9,6 +9,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** The whole answer, for the few callers that read more than the error (a 409 carries the current record). */
+    readonly body?: unknown,
   ) {
     super(message);
     this.name = 'ApiError';
@@ -23,9 +25,11 @@ type Options = {
   text?: { content: string; type: string };
   /** Sent as multipart form data (file uploads); the browser sets the boundary. */
   form?: FormData;
+  /** Lets the request outlive the page (sent while the tab is hidden or closed). */
+  keepalive?: boolean;
 };
 
-export async function api<T>(path: string, { method = 'GET', body, text, form }: Options = {}): Promise<T> {
+export async function api<T>(path: string, { method = 'GET', body, text, form, keepalive }: Options = {}): Promise<T> {
   let res: Response;
   try {
     res = await fetch(path, {
@@ -36,6 +40,7 @@ export async function api<T>(path: string, { method = 'GET', body, text, form }:
         ...(form ? {} : text ? { 'Content-Type': text.type } : body !== undefined ? { 'Content-Type': 'application/json' } : {}),
       },
       body: form ?? (text ? text.content : body === undefined ? undefined : JSON.stringify(body)),
+      ...(keepalive ? { keepalive: true } : {}),
     });
   } catch {
     throw new ApiError(0, 'offline', 'Basted cannot be reached. Check your connection and try again.');
@@ -44,7 +49,7 @@ export async function api<T>(path: string, { method = 'GET', body, text, form }:
   const data = await res.json().catch(() => null);
   if (!res.ok) {
     const error = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null)?.error;
-    throw new ApiError(res.status, error?.code ?? 'error', error?.message ?? `The server answered ${res.status}.`, error?.fields);
+    throw new ApiError(res.status, error?.code ?? 'error', error?.message ?? `The server answered ${res.status}.`, error?.fields, data);
   }
   return data as T;
 }

@@ -1,61 +1,70 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
-import useSWR from 'swr';
+import { useCallback, useEffect, useMemo, useSyncExternalStore } from 'react';
+import useSWR, { mutate as mutateKey } from 'swr';
 import type { ReportDraft } from '@/server/domain/schemas/reports';
-import { api, ApiError } from './api';
+import { api } from './api';
+import { deviceStore } from './device-store';
+import { ReportSaver, type ReportState } from './report-saver';
+import { trialKeys } from './use-trials';
 
-export type ReportChoices = { sizes: string[]; chosenSize: string | null; variants: string[]; drafts: { version: number; changeNote: string; createdAt: string }[] };
-export type ReportState = { stage: 'check-in' | 'final'; content: ReportDraft; submittedAt: string | null; dueAt: string | null; editable: boolean; choices?: ReportChoices };
-export type SaveStatus = { state: 'idle' | 'saving' | 'saved' | 'error'; message?: string; fields?: Record<string, string> };
+export type { ReportChoices, ReportState, SaveStatus } from './report-saver';
 
 export const reportKey = (enrollmentId: string, stage: string) => `/api/me/enrollments/${enrollmentId}/reports/${stage}`;
 
+// One saver per report for the life of the page: leaving the screen and coming back finds the
+// same one, so its saves stay in order and nothing it holds is dropped with the screen.
+const savers = new Map<string, ReportSaver>();
+
+function saverFor(key: string): ReportSaver {
+  let saver = savers.get(key);
+  if (!saver) {
+    saver = new ReportSaver({
+      send: (body, { keepalive }) => api<ReportState>(key, { method: 'PUT', body, keepalive }),
+      submit: (version) => api<ReportState>(`${key}/submit`, { method: 'POST', body: { version } }),
+      fetch: () => api<ReportState>(key),
+      store: deviceStore,
+      storeKey: `basted:unsaved:${key}`,
+      onConfirmed: (state) => {
+        void mutateKey(key, state, { revalidate: false });
+      },
+    });
+    savers.set(key, saver);
+  }
+  return saver;
+}
+
+// The page being closed, reloaded or hidden, and the connection coming back, concern every
+// report open in this page. Registered once, on the web only.
+if (typeof window !== 'undefined' && typeof window.addEventListener === 'function' && typeof document !== 'undefined') {
+  window.addEventListener('pagehide', () => savers.forEach((s) => s.leave()));
+  document.addEventListener('visibilitychange', () => {
+    if (document.visibilityState === 'hidden') savers.forEach((s) => void s.flush({ keepalive: true }));
+  });
+  window.addEventListener('online', () => savers.forEach((s) => s.online()));
+}
+
 /**
- * A report saved as the tester goes: each change to a part is sent (after a short pause) and the
- * server keeps every part it was sent, so a reload or a lost connection loses nothing already saved.
+ * A report saved as the tester goes (see ReportSaver): what the screen shows, the save status as
+ * the server gave it, and submit, which goes ahead only once every change is saved.
  */
 export function useReport(enrollmentId: string, stage: string) {
   const key = reportKey(enrollmentId, stage);
   const { data, error, mutate } = useSWR<ReportState>(key);
-  const [status, setStatus] = useState<SaveStatus>({ state: 'idle' });
-  const pending = useRef<Partial<ReportDraft>>({});
-  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const saver = useMemo(() => saverFor(key), [key]);
+  const view = useSyncExternalStore(saver.subscribe, saver.getView, saver.getView);
 
-  const flush = useCallback(async () => {
-    const parts = pending.current;
-    pending.current = {};
-    if (Object.keys(parts).length === 0) return;
-    setStatus({ state: 'saving' });
-    try {
-      const saved = await api<ReportState>(key, { method: 'PUT', body: parts });
-      await mutate(saved, { revalidate: false });
-      setStatus({ state: 'saved' });
-    } catch (e) {
-      // Keep what failed so the next change sends it again.
-      pending.current = { ...parts, ...pending.current };
-      setStatus({ state: 'error', message: e instanceof Error ? e.message : 'Not saved.', fields: e instanceof ApiError ? e.fields : undefined });
-    }
-  }, [key, mutate]);
+  useEffect(() => {
+    if (data) saver.load(data);
+  }, [data, saver]);
+  // Leaving the screen sends what is unsaved at once instead of after the pause.
+  useEffect(() => () => void saver.flush(), [saver]);
 
-  const change = useCallback(
-    (parts: Partial<ReportDraft>) => {
-      pending.current = { ...pending.current, ...parts };
-      if (timer.current) clearTimeout(timer.current);
-      timer.current = setTimeout(() => void flush(), 600);
-    },
-    [flush],
-  );
-
-  useEffect(() => () => {
-    if (timer.current) clearTimeout(timer.current);
-  }, []);
-
+  const change = useCallback((parts: Partial<ReportDraft>) => saver.change(parts), [saver]);
+  const retry = useCallback(() => saver.flush(), [saver]);
   const submit = useCallback(async () => {
-    if (timer.current) clearTimeout(timer.current);
-    await flush();
-    const done = await api<ReportState>(`${key}/submit`, { method: 'POST' });
-    await mutate(done, { revalidate: false });
+    const done = await saver.submit();
+    await mutateKey(trialKeys.mine);
     return done;
-  }, [flush, key, mutate]);
+  }, [saver]);
 
-  return { report: data, error, reload: mutate, change, status, submit, flush };
+  return { report: view.report, content: view.content, status: view.status, unsaved: view.unsaved, restored: view.restored, conflict: view.conflict, error, reload: mutate, change, retry, submit };
 }

@@ -53,7 +53,7 @@ export type MyTrial = {
   trial: { id: string; slug: string; title: string; state: string; studioName: string; patternId: string; studioId: string; category: string };
   status: ApplicationRow['status'];
   size: { id: string; label: string } | null;
-  enrollment: { id: string; status: string } | null;
+  enrollment: { id: string; status: 'active' | 'dropped' | 'finished'; submitted: { checkIn: string | null; final: string | null } } | null;
   dues: { kind: MilestoneKind; label: string; dueAt: string; extended: boolean; expects: string }[];
   next: { kind: MilestoneKind; label: string; dueAt: string; extended: boolean; expects: string } | null;
   appliedAt: string;

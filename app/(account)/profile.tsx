@@ -18,6 +18,7 @@ import { useIsWide } from '@/hooks/use-is-wide';
 import { saveProfile, useProfile, type Profile } from '@/hooks/use-profile';
 import { MEASUREMENTS } from '@/server/domain/measurements';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, profileSchema } from '@/server/domain/schemas/profile';
+import { deviceTimeZone } from '@/server/domain/time-zones';
 
 type Values = z.input<typeof profileSchema>;
 
@@ -33,7 +34,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
   const [saved, setSaved] = useState(false);
   // Fields whose typed text could not be read: saving waits until they are fixed.
   const [unreadable, setUnreadable] = useState<string[]>([]);
-  const { control, handleSubmit, setError, formState } = useForm<Values>({
+  const { control, handleSubmit, setError, setValue, formState } = useForm<Values>({
     resolver: zodResolver(profileSchema),
     defaultValues: {
       name: profile.name,
@@ -47,19 +48,31 @@ function ProfileForm({ profile }: { profile: Profile }) {
     },
   });
   const unit = useWatch({ control, name: 'lengthUnit' }) ?? 'in';
+  const zone = useWatch({ control, name: 'timeZone' });
+  const [device] = useState(deviceTimeZone);
 
   const submit = handleSubmit(async (values) => {
     setSaved(false);
     setFormError(null);
     if (unreadable.length) {
-      setFormError(`Please correct: ${unreadable.join(', ')}.`);
+      setFormError(`Not saved: ${unreadable.join(', ')} could not be read. Correct ${unreadable.length === 1 ? 'it' : 'them'} first.`);
       return;
     }
     try {
       await saveProfile(values);
       setSaved(true);
     } catch (error) {
-      setFormError(applyApiError(error, setError, ['name', 'lengthUnit', 'fabricUnit', 'timeZone', 'experience', 'fitNotes', 'measurementsMm', 'mail']));
+      setFormError(
+        applyApiError(error, setError, ['name', 'lengthUnit', 'fabricUnit', 'timeZone', 'experience', 'fitNotes', 'measurementsMm', 'mail'], {
+          name: 'Name',
+          timeZone: 'Time zone',
+          experience: 'Sewing experience',
+          fitNotes: 'Fit notes',
+          measurementsMm: 'Body measurements',
+          mail: 'E-mail',
+          ...Object.fromEntries(MEASUREMENTS.map((m) => [`measurementsMm.${m.key}`, m.label])),
+        }),
+      );
     }
   });
 
@@ -100,6 +113,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
             />
           )}
         />
+        {zone !== device ? <Button label={`Use this device’s zone: ${device}`} tone="quiet" onPress={() => setValue('timeZone', device, { shouldDirty: true })} /> : null}
         <Controller
           control={control}
           name="experience"

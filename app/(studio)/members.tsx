@@ -7,6 +7,7 @@ import { applyApiError } from '@/components/forms/api-errors';
 import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { ConfirmPanel } from '@/components/ui/confirm-panel';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
@@ -61,42 +62,61 @@ function InviteForm({ studioId, isOwner }: { studioId: string; isOwner: boolean 
   );
 }
 
+/** What each role may do in the studio, in the words a confirmation shows (see policy.ts). */
+const ROLE_POWERS: Record<Role, string> = {
+  owner: 'everything in the studio, members and deletion included',
+  coordinator: 'run trials and patterns, but not members or deletion',
+  grader: 'read patterns, reports, photos and findings and triage findings, without changing trials',
+  tester: 'see only their own trials, reports and photos',
+};
+
 function MemberRow({ member, studioId, canEdit, isSelf }: { member: Member; studioId: string; canEdit: boolean; isSelf: boolean }) {
-  const [busy, setBusy] = useState(false);
-  const [failure, setFailure] = useState<string | null>(null);
-  const act = async (work: () => Promise<void>) => {
-    setBusy(true);
-    setFailure(null);
-    try {
-      await work();
-    } catch (error) {
-      setFailure(error instanceof Error ? error.message : 'That did not work.');
-    } finally {
-      setBusy(false);
-    }
-  };
+  // A role change or a removal is only asked for here; the confirmation below does it.
+  const [asking, setAsking] = useState<{ kind: 'role'; role: Role } | { kind: 'remove' } | null>(null);
   return (
     <View style={styles.row} aria-label={`${member.name}, ${ROLE_LABELS[member.role]}`}>
       <AppText variant="heading">{member.name}</AppText>
       <AppText variant="caption">{`${member.email} · ${ROLE_LABELS[member.role]}${isSelf ? ' · you' : ''}`}</AppText>
-      {failure ? <Notice tone="error">{failure}</Notice> : null}
       {canEdit ? (
         <>
           <ChoiceGroup<Role>
             label={`Role of ${member.name}`}
             options={ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))}
-            value={member.role}
-            onChange={(role) => role !== member.role && act(() => changeRole(studioId, member.id, role))}
+            value={asking?.kind === 'role' ? asking.role : member.role}
+            onChange={(role) => setAsking(role === member.role ? null : { kind: 'role', role })}
           />
-          {!isSelf ? (
-            <Button
-              label="Remove from studio"
-              accessibleLabel={`Remove ${member.name} from the studio`}
-              tone="danger"
-              busy={busy}
-              busyLabel="Removing…"
-              onPress={() => act(() => removeMember(studioId, member.id))}
+          {asking?.kind === 'role' ? (
+            <ConfirmPanel
+              question={`Make ${isSelf ? 'yourself' : member.name} ${ROLE_LABELS[asking.role].toLowerCase()}?`}
+              consequences={[
+                `${isSelf ? 'You' : member.name} will ${ROLE_POWERS[asking.role]}.`,
+                `Now: ${ROLE_LABELS[member.role].toLowerCase()}, who may ${ROLE_POWERS[member.role]}.`,
+              ]}
+              confirmLabel={`Yes, make ${ROLE_LABELS[asking.role].toLowerCase()}`}
+              busyLabel="Changing the role…"
+              onCancel={() => setAsking(null)}
+              onConfirm={async () => {
+                await changeRole(studioId, member.id, asking.role);
+                setAsking(null);
+              }}
             />
+          ) : null}
+          {!isSelf && asking?.kind === 'remove' ? (
+            <ConfirmPanel
+              question={`Remove ${member.name} from the studio?`}
+              consequences={[
+                `${member.name} loses access to this studio's ${member.role === 'tester' ? 'trials' : 'patterns, trials, reports and findings'} at once.`,
+                'Their own account, and anything they wrote, stays.',
+                'To have them back, send a new invitation.',
+              ]}
+              confirmLabel="Yes, remove"
+              busyLabel="Removing…"
+              onCancel={() => setAsking(null)}
+              onConfirm={() => removeMember(studioId, member.id)}
+            />
+          ) : null}
+          {!isSelf && asking?.kind !== 'remove' ? (
+            <Button label="Remove from studio" accessibleLabel={`Remove ${member.name} from the studio`} tone="danger" onPress={() => setAsking({ kind: 'remove' })} />
           ) : null}
         </>
       ) : null}

@@ -7,13 +7,14 @@ import { useTrialDrafts } from '@/hooks/use-drafts';
 import { Button } from '@/components/ui/button';
 import { ButtonLink } from '@/components/ui/button-link';
 import { Card } from '@/components/ui/card';
+import { ConfirmPanel } from '@/components/ui/confirm-panel';
 import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
 import { Empty, LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
 import { colors, fonts, space } from '@/constants/theme';
 import { useSession } from '@/hooks/use-session';
-import { useMyTrials, withdrawApplication } from '@/hooks/use-trials';
+import { useMyTrials, withdrawApplication, type MyTrial } from '@/hooks/use-trials';
 
 /** The draft files of a trial the tester is enrolled in, newest first. */
 function TrialDrafts({ trialId, onError }: { trialId: string; onError: (message: string) => void }) {
@@ -40,10 +41,33 @@ const STATUS_WORDS = {
   withdrawn: 'Withdrawn',
 } as const;
 
+/** What withdrawing does, said before it is done. */
+function withdrawalConsequences(t: MyTrial): string[] {
+  if (t.status !== 'selected') return ['Your application is withdrawn: the studio will no longer consider it.', 'You cannot apply to this call again.'];
+  return [
+    'You give up your place; it may be offered to someone on the waiting list.',
+    'Your photos for this trial are deleted, and reminders stop.',
+    'Reports you already sent stay with the studio.',
+    'This cannot be undone.',
+  ];
+}
+
+/** A report's link, and once it is sent, when it was received (it then opens as sent). */
+function ReportLink({ t, stage, label, zone }: { t: MyTrial; stage: 'check-in' | 'final'; label: string; zone: string }) {
+  const received = stage === 'final' ? t.enrollment!.submitted.final : t.enrollment!.submitted.checkIn;
+  return (
+    <View style={styles.report}>
+      <ButtonLink href={{ pathname: '/report/[enrollmentId]/[stage]', params: { enrollmentId: t.enrollment!.id, stage } }} label={label} tone="quiet" />
+      <AppText variant="caption">{received ? `Received ${describeInstant(received, zone)}` : 'Not sent yet'}</AppText>
+    </View>
+  );
+}
+
 export default function MyTrialsScreen() {
   const { session } = useSession();
   const { data, error, mutate } = useMyTrials();
   const [failure, setFailure] = useState<string | null>(null);
+  const [confirming, setConfirming] = useState<string | null>(null);
   const zone = session?.user.timeZone ?? 'UTC';
   return (
     <Screen title="My trials" intro="The trials you applied to or test in, with what is due next.">
@@ -53,7 +77,7 @@ export default function MyTrialsScreen() {
       {data && data.length === 0 ? <Empty>No trials yet. A studio’s call for testers has a link to apply.</Empty> : null}
       {data?.map((t) => (
         <Card key={t.applicationId} title={t.trial.title}>
-          <AppText style={styles.status}>{`${STATUS_WORDS[t.status]}${t.size ? ` · size ${t.size.label}` : ''} · ${t.trial.studioName}`}</AppText>
+          <AppText style={styles.status}>{`${t.enrollment?.status === 'finished' ? 'Finished: thank you for testing' : STATUS_WORDS[t.status]}${t.size ? ` · size ${t.size.label}` : ''} · ${t.trial.studioName}`}</AppText>
           {t.next ? (
             <View style={styles.next} aria-label="Next due">
               <AppText style={styles.strong}>{`Next: ${t.next.label}, ${describeInstant(t.next.dueAt, zone)}${t.next.extended ? ' (extended for you)' : ''}`}</AppText>
@@ -63,11 +87,11 @@ export default function MyTrialsScreen() {
           {t.dues.map((d) => (
             <AppText key={d.kind} variant="caption">{`${d.label}: ${describeInstant(d.dueAt, zone)}`}</AppText>
           ))}
-          {t.status === 'selected' && t.enrollment?.status === 'active' ? <TrialDrafts trialId={t.trial.id} onError={setFailure} /> : null}
+          {t.status === 'selected' && (t.enrollment?.status === 'active' || t.enrollment?.status === 'finished') ? <TrialDrafts trialId={t.trial.id} onError={setFailure} /> : null}
           {t.enrollment && t.status === 'selected' ? (
             <View style={styles.reports}>
-              <ButtonLink href={{ pathname: '/report/[enrollmentId]/[stage]', params: { enrollmentId: t.enrollment.id, stage: 'check-in' } }} label="Toile check-in" tone="quiet" />
-              <ButtonLink href={{ pathname: '/report/[enrollmentId]/[stage]', params: { enrollmentId: t.enrollment.id, stage: 'final' } }} label="Final report" tone="quiet" />
+              <ReportLink t={t} stage="check-in" label="Toile check-in" zone={zone} />
+              <ReportLink t={t} stage="final" label="Final report" zone={zone} />
             </View>
           ) : null}
           {t.status === 'selected' ? (
@@ -75,13 +99,24 @@ export default function MyTrialsScreen() {
               My size advice
             </Link>
           ) : null}
-          {t.status !== 'withdrawn' && t.status !== 'declined' ? (
-            <Button
-              label="Withdraw"
-              accessibleLabel={`Withdraw from ${t.trial.title}`}
-              tone="danger"
-              onPress={() => withdrawApplication(t.applicationId).catch((e: Error) => setFailure(e.message))}
-            />
+          {/* Once the tester has finished there is nothing left to withdraw from. */}
+          {t.status !== 'withdrawn' && t.status !== 'declined' && t.enrollment?.status !== 'finished' ? (
+            confirming === t.applicationId ? (
+              <ConfirmPanel
+                question={`Withdraw from ${t.trial.title}?`}
+                consequences={withdrawalConsequences(t)}
+                confirmLabel="Yes, withdraw"
+                busyLabel="Withdrawing…"
+                cancelLabel={t.status === 'selected' ? 'Keep my place' : 'Keep my application'}
+                onCancel={() => setConfirming(null)}
+                onConfirm={async () => {
+                  await withdrawApplication(t.applicationId);
+                  setConfirming(null);
+                }}
+              />
+            ) : (
+              <Button label="Withdraw" accessibleLabel={`Withdraw from ${t.trial.title}`} tone="danger" onPress={() => setConfirming(t.applicationId)} />
+            )
           ) : null}
         </Card>
       ))}
@@ -95,5 +130,6 @@ const styles = StyleSheet.create({
   strong: { fontFamily: fonts.semibold },
   link: { color: colors.thread, fontFamily: fonts.semibold, paddingVertical: space.sm },
   drafts: { gap: space.sm },
-  reports: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  reports: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  report: { gap: 2 },
 });

@@ -29,6 +29,18 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
   const [draft, setDraft] = useState<ChartDraft>(() => draftFromChart(pattern.chart));
   const [busy, setBusy] = useState(false);
   const [result, setResult] = useState<{ tone: 'error' | 'success'; message: string; problems: string[] } | null>(null);
+  // Cells whose typed text could not be read, by the cell's label: while any is left, the chart
+  // is not saved (saving would empty the cell, or keep an older value the field no longer shows).
+  const [unreadable, setUnreadable] = useState<Record<string, string>>({});
+  const noteUnreadable = (label: string, message: string | null) =>
+    setUnreadable((now) => {
+      if (message === null) {
+        if (!(label in now)) return now;
+        const { [label]: _gone, ...rest } = now;
+        return rest;
+      }
+      return now[label] === message ? now : { ...now, [label]: message };
+    });
   const update = (change: (d: ChartDraft) => ChartDraft) => {
     setDraft(change);
     setResult(null);
@@ -43,6 +55,15 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
     });
 
   const save = async () => {
+    const bad = Object.entries(unreadable);
+    if (bad.length) {
+      setResult({
+        tone: 'error',
+        message: `Not saved: ${bad.length === 1 ? 'one value' : `${bad.length} values`} could not be read. Correct ${bad.length === 1 ? 'it' : 'them'} first; nothing was changed.`,
+        problems: bad.map(([label, message]) => `${label}: ${message}`),
+      });
+      return;
+    }
     setBusy(true);
     try {
       const saved = await saveChart(studioId, pattern.id, chartInputFromDraft(draft));
@@ -70,6 +91,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
           valueMm={draft.draftedHeightMm}
           readOnly={!canEdit}
           onChangeMm={(mm) => update((d) => ({ ...d, draftedHeightMm: mm }))}
+          onInputError={(message) => noteUnreadable('Drafted for a height of', message)}
         />
         <ToggleChips label="Body measurements in the chart" options={BODY_OPTIONS} selected={draft.bodyColumns} disabled={!canEdit} onChange={(bodyColumns) => update((d) => ({ ...d, bodyColumns }))} />
 
@@ -111,6 +133,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
           unit={unit}
           readOnly={!canEdit}
           onChange={(row, col, mm) => update((d) => ({ ...d, sizes: d.sizes.map((s) => (s.key === row ? { ...s, bodyMm: { ...s.bodyMm, [col]: mm } } : s)) }))}
+          onInputError={noteUnreadable}
         />
 
         <ToggleChips label="Finished garment measurements" options={FINISHED_OPTIONS} selected={draft.finishedColumns} disabled={!canEdit} onChange={(finishedColumns) => update((d) => ({ ...d, finishedColumns }))} />
@@ -122,6 +145,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
             unit={unit}
             readOnly={!canEdit}
             onChange={(row, col, mm) => update((d) => ({ ...d, sizes: d.sizes.map((s) => (s.key === row ? { ...s, finishedMm: { ...s.finishedMm, [col]: mm } } : s)) }))}
+            onInputError={noteUnreadable}
           />
         ) : null}
 
@@ -164,6 +188,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
                   variants: d.variants.map((v) => (v.key === variant.key ? { ...v, values: { ...v.values, [row]: { ...v.values[row], [col]: mm } } } : v)),
                 }))
               }
+              onInputError={noteUnreadable}
             />
             {canEdit ? <Button label="Remove variant" tone="danger" onPress={() => update((d) => ({ ...d, variants: d.variants.filter((v) => v.key !== variant.key) }))} /> : null}
           </View>

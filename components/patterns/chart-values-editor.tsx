@@ -24,22 +24,25 @@ type Props = {
   unitLabel?: string;
   /** Messages for single cells, by row key then column key (e.g. a refusal naming the cell). */
   errors?: Record<string, Record<string, string>>;
+  /** Told when a cell's typed text cannot be read (its label and the message) or can again (null). */
+  onInputError?: (label: string, message: string | null) => void;
 };
 
 /**
  * Lengths per size and column: a full grid on a wide window, one size at a time on a phone.
  * Every cell is a measurement field, named "Hip, size 12" for assistive technology.
  */
-export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChange, parse, format, unitLabel, errors }: Props) {
+export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChange, parse, format, unitLabel, errors, onInputError }: Props) {
   const wide = useIsWide();
   const [current, setCurrent] = useState<string | null>(rows[0]?.key ?? null);
   if (columns.length === 0) return <AppText variant="caption">Choose the measurements of this chart first.</AppText>;
   if (rows.length === 0) return <AppText variant="caption">Add a size first.</AppText>;
 
+  const cellLabel = (row: Row, col: ValueColumn) => `${title} ${col.label.toLowerCase()}, size ${row.label}`;
   const cell = (row: Row, col: ValueColumn, hideLabel: boolean) => (
     <MeasurementField
       key={`${row.key}:${col.key}:${unit}`}
-      label={`${title} ${col.label.toLowerCase()}, size ${row.label}`}
+      label={cellLabel(row, col)}
       hideLabel={hideLabel}
       unit={unit}
       placeholder={unitLabel ?? unit}
@@ -49,18 +52,25 @@ export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChan
       error={errors?.[row.key]?.[col.key]}
       readOnly={readOnly}
       onChangeMm={(mm) => onChange(row.key, col.key, mm)}
+      onInputError={(message) => onInputError?.(cellLabel(row, col), message)}
     />
   );
 
   if (!wide) {
-    const row = rows.find((r) => r.key === current) ?? rows[0];
+    const shown = (rows.find((r) => r.key === current) ?? rows[0]).key;
+    // Every size stays mounted (the others hidden), so text typed in one size and not yet
+    // readable is still there, and still holds back the save, after switching to another.
     return (
       <View style={styles.phone}>
-        <ChoiceGroup label={`${title}: size`} options={rows.map((r) => ({ value: r.key, label: r.label }))} value={row.key} onChange={setCurrent} />
-        {columns.map((col) => (
-          <View key={col.key} style={styles.phoneField}>
-            <AppText variant="label">{col.label}</AppText>
-            {cell(row, col, true)}
+        <ChoiceGroup label={`${title}: size`} options={rows.map((r) => ({ value: r.key, label: r.label }))} value={shown} onChange={setCurrent} />
+        {rows.map((row) => (
+          <View key={row.key} style={[styles.phone, row.key !== shown && styles.hidden]}>
+            {columns.map((col) => (
+              <View key={col.key} style={styles.phoneField}>
+                <AppText variant="label">{col.label}</AppText>
+                {cell(row, col, true)}
+              </View>
+            ))}
           </View>
         ))}
       </View>
@@ -96,6 +106,7 @@ export function ChartValuesEditor({ title, columns, rows, unit, readOnly, onChan
 const styles = StyleSheet.create({
   phone: { gap: space.md },
   phoneField: { gap: space.xs },
+  hidden: { display: 'none' },
   grid: { paddingBottom: space.sm },
   headerRow: { flexDirection: 'row', borderBottomWidth: 1, borderBottomColor: colors.line, paddingBottom: space.xs },
   row: { flexDirection: 'row', alignItems: 'flex-start', paddingVertical: space.xs },

@@ -35,6 +35,8 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   const [message, setMessage] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
   // The server's refusals of single cells, by size id then column; cleared when that cell changes.
   const [refused, setRefused] = useState<Record<string, Record<string, string>>>({});
+  // Cells whose typed text could not be read: saving now would drop them silently.
+  const [unreadable, setUnreadable] = useState<Record<string, string>>({});
 
   const columns = widths.flatMap((w) => [
     { key: columnKey(w, false), label: `${formatLength(w, lengthUnit)} wide` },
@@ -61,6 +63,11 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
   for (const p of problems) (cellErrors[cells[p.index].sizeId] ??= {})[cells[p.index].col] = p.cellMessage;
 
   const save = async () => {
+    const bad = Object.entries(unreadable);
+    if (bad.length) {
+      setMessage({ tone: 'error', text: `Not saved: ${bad.map(([label, why]) => `${label} ${why}`).join('; ')}. Correct ${bad.length === 1 ? 'it' : 'them'} first; nothing was changed.` });
+      return;
+    }
     setMessage(null);
     if (problems.length) {
       setMessage({ tone: 'error', text: 'Not saved: correct the one-way lengths marked in the table first.' });
@@ -119,6 +126,12 @@ export function FabricNeedsEditor({ studioId, pattern, lengthUnit, fabricUnit, c
               return { ...r, [row]: rest };
             });
           }}
+          onInputError={(label, why) =>
+            setUnreadable((now) => {
+              const { [label]: _gone, ...rest } = now;
+              return why === null ? rest : { ...rest, [label]: why };
+            })
+          }
         />
       )}
       {problems.length ? <Notice tone="error">{problems.map((p) => p.message).join('\n')}</Notice> : null}

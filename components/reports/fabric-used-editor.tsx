@@ -8,7 +8,16 @@ import type { ReportDraft } from '@/server/domain/schemas/reports';
 import { formatFabricLength, parseFabricLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 
 type Fabric = NonNullable<ReportDraft['fabric']>;
-type Props = { value: Fabric | undefined; lengthUnit: LengthUnit; fabricUnit: FabricUnit; readOnly: boolean; onChange: (next: Fabric) => void; errors?: Record<string, string> };
+type Props = {
+  value: Fabric | undefined;
+  lengthUnit: LengthUnit;
+  fabricUnit: FabricUnit;
+  readOnly: boolean;
+  onChange: (next: Fabric) => void;
+  errors?: Record<string, string>;
+  /** Told when a typed length cannot be read (the field's label and the message) or can again (null). */
+  onInputError?: (label: string, message: string | null) => void;
+};
 
 export const EMPTY_FABRIC: Fabric = { kind: '', fibre: '', widthMm: null, usedMm: null, stretchPct: null, napped: false };
 
@@ -16,7 +25,7 @@ export const EMPTY_FABRIC: Fabric = { kind: '', fibre: '', widthMm: null, usedMm
  * The fabric the tester sewed with: what it was, how wide, how much of it the garment took and
  * whether it had to be cut one way. The studio compares the length used with the stated needs.
  */
-export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onChange, errors = {} }: Props) {
+export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onChange, errors = {}, onInputError }: Props) {
   const fabric = { ...EMPTY_FABRIC, ...(value ?? {}) };
   const set = (patch: Partial<Fabric>) => onChange({ ...fabric, ...patch });
   const [stretchText, setStretchText] = useState(fabric.stretchPct == null ? '' : String(fabric.stretchPct));
@@ -29,8 +38,10 @@ export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onCh
         unit={lengthUnit}
         placeholder={lengthUnit === 'in' ? 'e.g. 54' : 'e.g. 140 cm'}
         readOnly={readOnly}
+        commitWhileTyping
         valueMm={fabric.widthMm}
         onChangeMm={(widthMm) => set({ widthMm })}
+        onInputError={(message) => onInputError?.('Fabric width', message)}
         error={errors['fabric.widthMm']}
       />
       <MeasurementField
@@ -41,8 +52,10 @@ export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onCh
         parse={(text) => parseFabricLength(text, fabricUnit)}
         format={(mm) => formatFabricLength(mm, fabricUnit)}
         readOnly={readOnly}
+        commitWhileTyping
         valueMm={fabric.usedMm}
         onChangeMm={(usedMm) => set({ usedMm })}
+        onInputError={(message) => onInputError?.('Length used', message)}
         error={errors['fabric.usedMm']}
       />
       <TextField

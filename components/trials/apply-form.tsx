@@ -10,6 +10,7 @@ import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
 import { colors, space } from '@/constants/theme';
+import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { useProfile } from '@/hooks/use-profile';
 import { applyToCall, trialKeys, type PublicCall } from '@/hooks/use-trials';
@@ -17,6 +18,17 @@ import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, type Experience } from '@/server/
 import type { SizeAdvice } from '@/server/domain/size-advice';
 
 type Props = { call: PublicCall; describeDue: (iso: string) => string };
+
+/** The form's labels, for naming refused answers in the banner. */
+const APPLY_LABELS: Record<string, string> = {
+  sizeId: 'Size you will sew',
+  variantId: 'Variant',
+  plannedFabric: 'Fabric you plan to use',
+  experience: 'Sewing experience',
+  deadlinesConfirmed: 'Deadlines',
+  photoConsent: 'Who may see your photos',
+  note: 'Anything else',
+};
 
 /** The application: prefilled from the profile, with the tester's size advice beside it. */
 export function ApplyForm({ call, describeDue }: Props) {
@@ -55,7 +67,7 @@ export function ApplyForm({ call, describeDue }: Props) {
       setResult({ tone: 'success', text: 'Application sent. The studio will let you know by e-mail.' });
     } catch (error) {
       if (error instanceof ApiError && error.fields) setErrors(error.fields);
-      setResult({ tone: 'error', text: error instanceof Error ? error.message : 'Not sent.' });
+      setResult({ tone: 'error', text: describeApiError(error, APPLY_LABELS, 'Not sent.') });
     } finally {
       setBusy(false);
     }

@@ -5,9 +5,10 @@ import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
+import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { updateTrial, type TrialDetail } from '@/hooks/use-trials';
-import { MILESTONE_KINDS, MILESTONE_LABELS, TRIAL_STATE_LABELS, TRIAL_STATES } from '@/server/domain/trials';
+import { MILESTONE_KINDS, MILESTONE_LABELS, milestoneOrderProblems, TRIAL_STATE_LABELS, TRIAL_STATES, type MilestoneKind } from '@/server/domain/trials';
 import { fromLocalText, LOCAL_FORMAT, toLocalText } from './dates';
 
 type Props = { studioId: string; trial: TrialDetail; timeZone: string; canEdit: boolean };
@@ -24,6 +25,17 @@ export function CallEditor({ studioId, trial, timeZone, canEdit }: Props) {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
+  // "Now" as of opening the editor: good enough to tell a past date, and stable across renders.
+  const [openedAt] = useState(() => Date.now());
+  const stored = Object.fromEntries(trial.milestones.map((m) => [m.kind, toLocalText(m.dueAt, timeZone)]));
+  // A date changed here to one already past: worth a second look, but not refused (a running
+  // trial's earlier dates are past by nature).
+  const inThePast = (kind: MilestoneKind) => {
+    const text = dates[kind]?.trim();
+    if (!text || text === stored[kind]) return false;
+    const iso = fromLocalText(text, timeZone);
+    return iso !== null && new Date(iso).getTime() < openedAt;
+  };
 
   const save = async () => {
     const milestones: Record<string, string> = {};
@@ -40,14 +52,22 @@ export function CallEditor({ studioId, trial, timeZone, canEdit }: Props) {
       setMessage({ tone: 'error', text: 'Some dates could not be read; nothing was saved.' });
       return;
     }
+    const order = milestoneOrderProblems(milestones, (at) => toLocalText(at, timeZone));
+    if (Object.keys(order).length) {
+      setErrors(order);
+      setMessage({ tone: 'error', text: 'The dates are out of order: each must come on or after the one before it. Nothing was saved.' });
+      return;
+    }
+    const past = MILESTONE_KINDS.filter(inThePast).map((k) => MILESTONE_LABELS[k]);
     setBusy(true);
     setMessage(null);
     try {
       await updateTrial(studioId, trial.id, { title, callText, requirements, state, milestones });
-      setMessage({ tone: 'success', text: 'Call and dates saved.' });
+      setMessage({ tone: 'success', text: past.length ? `Call and dates saved. In the past: ${past.join(', ')}.` : 'Call and dates saved.' });
     } catch (error) {
       if (error instanceof ApiError && error.fields) setErrors(error.fields);
-      setMessage({ tone: 'error', text: error instanceof Error ? error.message : 'Not saved.' });
+      const labels = { title: 'Title', callText: 'Call for testers', requirements: 'Requirements', state: 'State', ...Object.fromEntries(MILESTONE_KINDS.map((k) => [`milestones.${k}`, MILESTONE_LABELS[k]])) };
+      setMessage({ tone: 'error', text: describeApiError(error, labels, 'Not saved.') });
     } finally {
       setBusy(false);
     }
@@ -59,7 +79,7 @@ export function CallEditor({ studioId, trial, timeZone, canEdit }: Props) {
       <TextField label="Call for testers" hint="What the pattern is and what testing it involves." value={callText} onChangeText={setCallText} editable={canEdit} multiline error={errors.callText} />
       <TextField label="Requirements" hint="Fabric, skills, photos, time." value={requirements} onChangeText={setRequirements} editable={canEdit} multiline error={errors.requirements} />
       <ChoiceGroup label="State" options={TRIAL_STATES.map((s) => ({ value: s, label: TRIAL_STATE_LABELS[s] }))} value={state} onChange={(s) => canEdit && setState(s)} error={errors.state} />
-      <AppText variant="caption">{`Dates and times in the studio’s time zone, ${timeZone}, as ${LOCAL_FORMAT}.`}</AppText>
+      <AppText variant="caption">{`Dates and times in the studio’s time zone, ${timeZone}, as ${LOCAL_FORMAT}, each on or after the one above it.`}</AppText>
       {MILESTONE_KINDS.map((kind) => (
         <TextField
           key={kind}
@@ -68,6 +88,7 @@ export function CallEditor({ studioId, trial, timeZone, canEdit }: Props) {
           onChangeText={(text) => setDates((d) => ({ ...d, [kind]: text }))}
           placeholder="2027-03-01 18:00"
           editable={canEdit}
+          hint={inThePast(kind) ? 'This date is in the past: check it before saving.' : undefined}
           error={errors[`milestones.${kind}`]}
         />
       ))}

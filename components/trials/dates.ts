@@ -25,3 +25,8 @@ export function fromLocalText(text: string, timeZone: string): string | null {
 export function describeInstant(iso: string | Date, timeZone: string): string {
   return `${dayjs(iso).tz(timeZone).format('dddd D MMMM YYYY, HH:mm')} (${timeZone})`;
 }
+
+/** "14:02" in a time zone: when something happened today, e.g. a save. */
+export function timeOfDay(iso: string | Date, timeZone: string): string {
+  return dayjs(iso).tz(timeZone).format('HH:mm');
+}

@@ -6,6 +6,7 @@ import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
+import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { usePatterns } from '@/hooks/use-patterns';
 import { createTrial } from '@/hooks/use-trials';
@@ -30,7 +31,7 @@ export function NewTrialForm({ studioId }: { studioId: string }) {
       router.push({ pathname: '/trials/[id]', params: { id: trial.id } });
     } catch (error) {
       if (error instanceof ApiError && error.fields) setErrors(error.fields);
-      setFailure(error instanceof Error ? error.message : 'The trial could not be created.');
+      setFailure(describeApiError(error, { patternId: 'Pattern to test', title: 'Trial title' }, 'The trial could not be created.'));
     } finally {
       setBusy(false);
     }

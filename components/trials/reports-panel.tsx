@@ -14,6 +14,7 @@ import { api } from '@/hooks/api';
 import { usePatternDrafts } from '@/hooks/use-drafts';
 import { trialKeys, type TrialDetail } from '@/hooks/use-trials';
 import { ALTERATION_KINDS } from '@/server/domain/alterations';
+import { countedAlterations } from '@/server/domain/schemas/reports';
 import type { ReportDraft } from '@/server/domain/schemas/reports';
 import { formatFabricLength, formatLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 
@@ -56,8 +57,8 @@ export function ReportsPanel({ studioId, trial, unit, fabricUnit = 'yd', canMap 
           {Object.entries(r.content.fit ?? {}).length ? (
             <AppText variant="caption">{`Fit: ${Object.entries(r.content.fit ?? {}).map(([area, v]) => `${area} ${v! > 0 ? '+' : ''}${v}`).join(', ')}`}</AppText>
           ) : null}
-          {(r.content.alterations ?? []).map((a, i) => (
-            <AppText key={i} variant="caption">{`\u2022 ${a.kind === 'other' ? `“${a.otherText}”` : (KIND_LABELS.get(a.kind) ?? a.kind)}: ${formatLength(a.amountMm, unit)} (${a.where})${a.note ? `, ${a.note}` : ''}`}</AppText>
+          {countedAlterations(r.content).map((a, i) => (
+            <AppText key={i} variant="caption">{`\u2022 ${a.kind === 'other' ? `“${a.otherText}”` : (KIND_LABELS.get(a.kind) ?? a.kind)}: ${formatLength(a.amountMm, unit)}${a.where ? ` (${a.where})` : ''}${a.note ? `, ${a.note}` : ''}`}</AppText>
           ))}
           {r.content.fabric && (r.content.fabric.kind || r.content.fabric.usedMm) ? <AppText variant="caption">{fabricLine(r.content.fabric, unit, fabricUnit)}</AppText> : null}
           {r.content.verdict ? <AppText variant="caption">{`“${r.content.verdict}”`}</AppText> : null}

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { TextInput, View } from 'react-native';
 import { colors } from '@/constants/theme';
 import { formatLength, parseLength, type LengthUnit, type ParseResult } from '@/server/domain/units';
@@ -31,6 +31,11 @@ type Props = {
   onBlur?: () => void;
   /** Told whenever the typed text becomes unreadable (the message) or readable again (null), so a form can hold back its submit. */
   onInputError?: (message: string | null) => void;
+  /**
+   * Also hands on each readable value while the person types (the text is tidied on blur), for
+   * forms saved as they go: a reload right after typing must not lose what was typed.
+   */
+  commitWhileTyping?: boolean;
 };
 
 function shown(valueMm: number | null, unit: LengthUnit, format?: (mm: number) => string): string {
@@ -58,6 +63,7 @@ export function MeasurementField({
   format,
   onBlur,
   onInputError,
+  commitWhileTyping = false,
 }: Props) {
   const [text, setText] = useState(() => shown(valueMm, unit, format));
   const [inputError, setInputError] = useState<string | null>(null);
@@ -81,6 +87,28 @@ export function MeasurementField({
   function reportInputError(message: string | null) {
     setInputError(message);
     onInputError?.(message);
+  }
+
+  // A field that goes away (a removed row or column) takes its unreadable text with it.
+  const unreadable = useRef<{ message: string | null; tell?: (message: string | null) => void }>({ message: null });
+  useEffect(() => {
+    unreadable.current = { message: inputError, tell: onInputError };
+  });
+  useEffect(
+    () => () => {
+      if (unreadable.current.message) unreadable.current.tell?.(null);
+    },
+    [],
+  );
+
+  function readWhileTyping(next: string) {
+    if (!commitWhileTyping) return;
+    if (next.trim() === '') {
+      if (valueMm !== null) onChangeMm(null);
+      return;
+    }
+    const result = parse ? parse(next) : parseLength(next, unit, { allowNegative });
+    if (result.ok && result.mm !== valueMm) onChangeMm(result.mm);
   }
 
   function commit() {
@@ -121,6 +149,7 @@ export function MeasurementField({
         onChangeText={(next) => {
           setText(next);
           setDirty(true);
+          readWhileTyping(next);
         }}
         onFocus={() => setFocused(true)}
         onBlur={() => {

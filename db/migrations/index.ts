@@ -9,6 +9,7 @@ import * as photos from './0006-photos';
 import * as reports from './0007-reports';
 import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
+import * as reportSaves from './0011-report-saves';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
@@ -24,6 +25,7 @@ export const migrations: Migration[] = [
   { name: '0007-reports', ...reports },
   { name: '0008-findings', ...findings },
   { name: '0009-mail-outbox', ...mailOutbox },
+  { name: '0011-report-saves', ...reportSaves },
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
 ];

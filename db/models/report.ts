@@ -16,7 +16,11 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
   declare enrollmentId: ForeignKey<Enrollment['id']>;
   declare stage: 'check-in' | 'final';
   declare content: CreationOptional<ReportDraft>;
+  /** Raised by every save; a save from an older version is refused. */
+  declare version: CreationOptional<number>;
   declare submittedAt: CreationOptional<Date | null>;
+  /** The parts a final report took over from the check-in when it was started. */
+  declare prefilled: CreationOptional<string[]>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -26,7 +30,9 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
         id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
         stage: { type: DataTypes.STRING(12), allowNull: false },
         content: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         submittedAt: { type: DataTypes.DATE, allowNull: true },
+        prefilled: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -27,7 +27,7 @@ export async function signUp(input: SignUpInput, auth: Config['auth']): Promise<
     });
   }
   const passwordHash = await bcrypt.hash(input.password, auth.bcryptCost);
-  const user = await User.create({ email, name: input.name, passwordHash });
+  const user = await User.create({ email, name: input.name, passwordHash, timeZone: input.timeZone ?? 'UTC' });
   return (await User.findByPk(user.id))!;
 }
 

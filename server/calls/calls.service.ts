@@ -1,6 +1,6 @@
 import { UniqueConstraintError } from 'sequelize';
 import type { z } from 'zod';
-import { Application, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, type User } from '../../db/models';
+import { Application, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Report, Studio, TesterProfile, Trial, type User } from '../../db/models';
 import type { MeasurementKey } from '../domain/measurements';
 import type { applySchema } from '../domain/schemas/trials';
 import { MILESTONE_KINDS, MILESTONE_LABELS, TESTER_EXPECTATIONS, TESTER_MILESTONES, type MilestoneKind } from '../domain/trials';
@@ -125,14 +125,24 @@ export async function apply(slug: string, user: User, input: z.output<typeof app
   return application;
 }
 
-/** A tester's own applications and enrollments, each with the next thing due and what it asks. */
+/** When each of the tester's reports reached the studio (null: not submitted). */
+function receiptsOf(enrollment: Enrollment) {
+  const reports = (enrollment as Enrollment & { reports?: Report[] }).reports ?? [];
+  const at = (stage: 'check-in' | 'final') => reports.find((r) => r.stage === stage)?.submittedAt ?? null;
+  return { checkIn: at('check-in'), final: at('final') };
+}
+
+/**
+ * A tester's own applications and enrollments, each with the next thing due and what it asks,
+ * and when each report was received.
+ */
 export async function myTrials(user: User) {
   const apps = await Application.findAll({
     where: { userId: user.id },
     include: [{ model: Trial, as: 'trial', include: [{ model: Milestone, as: 'milestones' }, { model: Pattern, as: 'pattern' }] }],
     order: [['appliedAt', 'DESC']],
   });
-  const enrollments = await Enrollment.findAll({ where: { userId: user.id } });
+  const enrollments = await Enrollment.findAll({ where: { userId: user.id }, include: [{ model: Report, as: 'reports', attributes: ['stage', 'submittedAt'] }] });
   const now = new Date();
   return Promise.all(
     apps.map(async (app) => {
@@ -152,7 +162,7 @@ export async function myTrials(user: User) {
         trial: { id: trial.id, slug: trial.slug, title: trial.title, state: trial.state, studioName: studio?.name ?? '', patternId: trial.patternId, studioId: trial.studioId, category: trial.pattern?.category ?? 'other' },
         status: app.status,
         size: size ? { id: size.id, label: size.label } : null,
-        enrollment: enrollment ? { id: enrollment.id, status: enrollment.status } : null,
+        enrollment: enrollment ? { id: enrollment.id, status: enrollment.status, submitted: receiptsOf(enrollment) } : null,
         dues: enrollment ? dues : [],
         next,
         appliedAt: app.appliedAt,

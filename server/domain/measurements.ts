@@ -64,7 +64,7 @@ export const MEASUREMENTS: readonly MeasurementDef[] = [
   { key: 'back_waist_length', label: 'Back waist length', hint: 'From the bone at the base of the neck down the spine to the waist.', minMm: 150, maxMm: 650 },
   { key: 'shoulder_width', label: 'Shoulder width', hint: 'Across the back from one shoulder point to the other.', minMm: 150, maxMm: 650 },
   { key: 'upper_arm', label: 'Upper arm', hint: 'Around the fullest part of the upper arm, arm relaxed.', minMm: 120, maxMm: 700 },
-  { key: 'height', label: 'Height', hint: 'Standing straight against a wall, without shoes.', minMm: 500, maxMm: 2300 },
+  { key: 'height', label: 'Height', hint: 'Standing straight against a wall, without shoes. Feet and inches work too, e.g. 5 ft 4.', minMm: 500, maxMm: 2300 },
 ];
 
 const BY_KEY = new Map<string, MeasurementDef>(MEASUREMENTS.map((m) => [m.key, m]));

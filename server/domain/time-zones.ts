@@ -12,3 +12,21 @@ export function isTimeZone(value: string): boolean {
     return false;
   }
 }
+
+/**
+ * A date and time as a person reads it in a time zone, with the zone named so it cannot be
+ * misread: "Thursday, 10 December 2026 at 17:00 (Europe/Lisbon)". Used in e-mails and messages.
+ */
+export function formatInZone(date: Date, timeZone: string): string {
+  return `${new Intl.DateTimeFormat('en-GB', { dateStyle: 'full', timeStyle: 'short', timeZone }).format(date)} (${timeZone})`;
+}
+
+/** The zone this device is set to (the browser's, on the web), or UTC when it cannot say. */
+export function deviceTimeZone(): string {
+  try {
+    const zone = Intl.DateTimeFormat().resolvedOptions().timeZone;
+    return zone && isTimeZone(zone) ? zone : 'UTC';
+  } catch {
+    return 'UTC';
+  }
+}

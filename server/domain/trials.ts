@@ -27,3 +27,31 @@ export const TRIAL_STATE_LABELS: Record<TrialStateKey, string> = {
   running: 'Running',
   closed: 'Closed',
 };
+
+/**
+ * The order a trial's dates must keep, each no earlier than the one before it: applications
+ * close, then testers are chosen, the drafts go out, the toile check-in is due, then the final
+ * report, and the release comes last. A date left out is skipped.
+ */
+export const MILESTONE_ORDER: readonly MilestoneKind[] = MILESTONE_KINDS;
+
+/**
+ * Dates out of order, as per-field messages (`milestones.<kind>`) naming the date each one
+ * must not come before; empty when the order holds. `describe` writes a date as the person
+ * reads it (their time zone).
+ */
+export function milestoneOrderProblems(dates: Partial<Record<MilestoneKind, Date | string>>, describe: (at: Date) => string): Record<string, string> {
+  const problems: Record<string, string> = {};
+  let latest: { kind: MilestoneKind; at: Date } | null = null;
+  for (const kind of MILESTONE_ORDER) {
+    const value = dates[kind];
+    if (value === undefined) continue;
+    const at = new Date(value);
+    if (latest && at.getTime() < latest.at.getTime()) {
+      problems[`milestones.${kind}`] = `is before “${MILESTONE_LABELS[latest.kind]}” (${describe(latest.at)}): ${MILESTONE_LABELS[kind].toLowerCase()} must come on or after it`;
+      continue;
+    }
+    latest = { kind, at };
+  }
+  return problems;
+}

@@ -125,17 +125,11 @@ type Reading =
 /** Longer than any sensible length, e.g. "12 7/8 inches"; a paste of a paragraph is refused early. */
 const MAX_INPUT_CHARS = 40;
 
-/**
- * Splits text into sign, number and unit without deciding what the unit means.
- * `forms` is the list of accepted forms to quote when the text is unreadable.
- */
-function readQuantity(raw: string, forms: string, allowNegative: boolean, feetMessage: string): Reading {
-  const notReadable = { ok: false as const, message: `could not be read: use a form such as ${forms}` };
-  let text = raw.trim().toLowerCase();
-  if (text === '') return { ok: false, message: `is empty: enter a length such as ${forms}` };
-  if (text.length > MAX_INPUT_CHARS) return notReadable;
-
-  text = text
+/** Lower case, one kind of minus, quote and fraction, single spaces: the text every reader sees. */
+function normalise(raw: string): string {
+  return raw
+    .trim()
+    .toLowerCase()
     // The typographic minus and the dashes people paste from documents.
     .replace(/[\u2212\u2012\u2013]/g, '-')
     // Typographic inch and foot marks (double and single prime, curly quotes).
@@ -147,6 +141,46 @@ function readQuantity(raw: string, forms: string, allowNegative: boolean, feetMe
     .replace(/\s*-\s*/g, '-')
     .replace(/\s+/g, ' ')
     .trim();
+}
+
+/**
+ * Feet, alone or with inches, as many people know their height: "5 ft 2", "5'2\"", "5' 2 1/2",
+ * "5 feet 2 inches", "5 ft". Whole feet, then inches under 12 (a fraction or a decimal is fine).
+ * Null when the text is not in feet at all; a refusal when it is, but cannot be read.
+ * 1 ft = 12 in exactly (international yard and pound agreement, 1959).
+ */
+function readFeet(raw: string, allowNegative: boolean): ParseResult | null {
+  if (raw.trim().length > MAX_INPUT_CHARS) return null;
+  const text = normalise(raw);
+  const m = /^([+-])?\s*(\d+)\s*(?:'(?!')|ft\.?|foot|feet)\s*(.*)$/.exec(text);
+  if (!m) return null;
+  const [, signText, feetText, restText] = m;
+  const help = `use feet and inches such as 5 ft 2, 5'2" or 5' 2 1/2", or one unit, e.g. 62 in or 157 cm`;
+  if (signText === '-' && !allowNegative) return { ok: false, message: 'cannot be negative here: enter the length without a minus sign' };
+  let inches = 0;
+  const rest = restText.replace(/^(and|,)\s*/, '').trim();
+  if (rest !== '') {
+    const r = readQuantity(rest, LENGTH_FORMS, false, help);
+    if (!r.ok || (r.unit !== null && r.unit !== 'in')) return { ok: false, message: `could not be read: ${help}` };
+    inches = r.numerator / r.denominator;
+    if (inches >= 12) return { ok: false, message: `has ${rest} after the feet: the inches after feet are under 12 (${help})` };
+  }
+  const mm = unsignedZero(((signText === '-' ? -1 : 1) * (Number(feetText) * 12 + inches) * MM_PER_INCH));
+  if (Math.abs(mm) > MAX_LENGTH_MM) return { ok: false, message: `is too long to be right (more than 5 m): check the unit, e.g. ${LENGTH_FORMS}` };
+  return { ok: true, mm };
+}
+
+/**
+ * Splits text into sign, number and unit without deciding what the unit means.
+ * `forms` is the list of accepted forms to quote when the text is unreadable.
+ */
+function readQuantity(raw: string, forms: string, allowNegative: boolean, feetMessage: string): Reading {
+  const notReadable = { ok: false as const, message: `could not be read: use a form such as ${forms}` };
+  let text = raw.trim();
+  if (text === '') return { ok: false, message: `is empty: enter a length such as ${forms}` };
+  if (text.length > MAX_INPUT_CHARS) return notReadable;
+
+  text = normalise(text);
 
   // No digit at all ("abc", "NaN", "Infinity", a lone unit): nothing to read.
   if (!/\d/.test(text)) return notReadable;
@@ -225,8 +259,8 @@ function unsignedZero(n: number): number {
  *   inches for a person who prefers inches and is refused for a person who prefers centimetres
  *   (nobody writes centimetres as fractions, so it is more likely a mistake than a guess).
  * - Units: in / inch / inches / ", cm, mm, and m (metres: "1.65 m" is how many people give a
- *   height, and anything absurd is caught by the 5 m ceiling). Feet are refused with a hint:
- *   "5' 6"" would be two units, and one unit per field keeps the reading unambiguous.
+ *   height, and anything absurd is caught by the 5 m ceiling). Feet and inches are read too
+ *   ("5 ft 2", "5'2\"", "5' 2 1/2"), since many people know their height that way.
  * - A decimal comma is read only before one or two digits ("3,5 cm"); "1,250" is refused as
  *   ambiguous between a thousands separator and a decimal comma.
  * - A leading minus (ASCII "-" or the typographic "−") only with allowNegative, for signed
@@ -235,11 +269,13 @@ function unsignedZero(n: number): number {
  * Messages never name the field: the caller puts the field's label in front ("Hip: …").
  */
 export function parseLength(text: string, preferred: LengthUnit, opts: { allowNegative?: boolean } = {}): ParseResult {
+  const feet = readFeet(text, opts.allowNegative ?? false);
+  if (feet) return feet;
   const r = readQuantity(
     text,
     LENGTH_FORMS,
     opts.allowNegative ?? false,
-    'is in feet: give it in inches or centimetres, e.g. 66 in or 168 cm',
+    'is in feet: give whole feet and inches, e.g. 5 ft 6, or one unit such as 66 in or 168 cm',
   );
   if (!r.ok) return r;
   let unit = r.unit;

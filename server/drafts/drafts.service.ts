@@ -101,9 +101,13 @@ export async function listDrafts(patternId: string) {
   });
 }
 
+/** Enrolments whose tester may open the draft files: testing now, or finished. */
+const KEEPS_FILES = ['active', 'finished'];
+
 /**
  * A short-lived link to one file, only after the access check: the studio's staff, or a tester
- * enrolled (and active) in a trial of that pattern. Every link handed out is logged.
+ * enrolled in a trial of that pattern, still testing or finished (a finished tester keeps the
+ * files they sewed from; one who left does not). Every link handed out is logged.
  */
 export async function downloadLink(fileId: string, user: User, storage: Storage) {
   const file = await DraftFile.findByPk(fileId, { include: [{ model: Draft, as: 'draft', include: [{ model: Pattern, as: 'pattern' }] }] });
@@ -114,7 +118,7 @@ export async function downloadLink(fileId: string, user: User, storage: Storage)
   const enrolled =
     !staff &&
     (await Enrollment.count({
-      where: { userId: user.id, status: 'active' },
+      where: { userId: user.id, status: { [Op.in]: KEEPS_FILES } },
       include: [{ model: Trial, as: 'trial', where: { patternId: pattern.id }, required: true }],
     })) > 0;
   // Refused before any link is made or any download logged.
@@ -128,7 +132,7 @@ export async function draftsForTrial(trialId: string, user: User) {
   const trial = await Trial.findByPk(trialId);
   if (!trial) throw notFound('trial');
   const membership = await Membership.findOne({ where: { studioId: trial.studioId, userId: user.id } });
-  const enrolled = await Enrollment.count({ where: { trialId, userId: user.id, status: 'active' } });
+  const enrolled = await Enrollment.count({ where: { trialId, userId: user.id, status: { [Op.in]: KEEPS_FILES } } });
   if (!enrolled && !can(membership?.role, 'patterns.read')) throw notYours('trial');
   return Draft.findAll({ where: { patternId: trial.patternId }, include: [{ model: DraftFile, as: 'files' }], order: [['version', 'DESC']] });
 }

@@ -20,6 +20,7 @@ import type { AnalysisOutput, ChangeRow } from '../analysis/types';
 import { ALTERATION_KINDS, alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { otherTextKey, type findingNoteSchema, type otherMappingSchema, type triageSchema } from '../domain/schemas/findings';
+import { countedAlterations, countedUnclearSteps } from '../domain/schemas/reports';
 import { studioThresholds } from '../domain/studio-settings';
 import { badRequest } from '../errors';
 import type { Thresholds } from '../analysis/thresholds';
@@ -85,7 +86,7 @@ export async function analysisInputFor(trial: Trial): Promise<AnalysisInput> {
       for (const [kind, m] of MEASUREMENT_OF) {
         if (m && typeof body[m] === 'number' && typeof size.bodyMm[m] === 'number') bodyDeltaMm[kind] = body[m] - size.bodyMm[m];
       }
-      for (const a of c.alterations ?? []) {
+      for (const a of countedAlterations(c)) {
         const kind = kindOf(a);
         const m = MEASUREMENT_OF.get(kind);
         if (m && typeof body[m] === 'number' && typeof size.bodyMm[m] === 'number') bodyDeltaMm[kind] = body[m] - size.bodyMm[m];
@@ -94,11 +95,11 @@ export async function analysisInputFor(trial: Trial): Promise<AnalysisInput> {
         tester: e.id,
         size: size.label,
         draft: String(c.draftVersion ?? 1),
-        alterations: (c.alterations ?? []).map((a) => ({ kind: kindOf(a), amountMm: a.amountMm })),
+        alterations: countedAlterations(c).map((a) => ({ kind: kindOf(a), amountMm: a.amountMm })),
         ...(Object.keys(bodyDeltaMm).length ? { bodyDeltaMm } : {}),
         ...(c.fit && Object.keys(c.fit).length ? { fit: c.fit as Record<string, number> } : {}),
         ...(c.fabric?.widthMm && c.fabric.usedMm ? { fabric: { widthMm: c.fabric.widthMm, usedMm: c.fabric.usedMm, napped: c.fabric.napped } } : {}),
-        ...(c.unclearSteps?.length ? { unclearSteps: c.unclearSteps.map((s) => s.step) } : {}),
+        ...(countedUnclearSteps(c).length ? { unclearSteps: countedUnclearSteps(c).map((s) => s.step) } : {}),
       });
     }
   }
@@ -277,7 +278,7 @@ export async function otherAlterations(trial: Trial & { pattern?: { category: st
   const mappings = await otherMappingsOf(trial.id);
   const groups = new Map<string, { text: string; reports: number; amountsMm: number[] }>();
   for (const r of reports) {
-    for (const a of r.content.alterations ?? []) {
+    for (const a of countedAlterations(r.content)) {
       if (a.kind !== 'other' || !a.otherText) continue;
       const key = otherTextKey(a.otherText);
       const g = groups.get(key) ?? { text: a.otherText.trim(), reports: 0, amountsMm: [] };

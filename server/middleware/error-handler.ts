@@ -21,11 +21,13 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
     return { status: err.status, body: { error: { code: err.code, message: err.message, fields: err.fields } } };
   }
   if (err instanceof ZodError) {
+    // The message names no field: the fields' own names are for programs; each form puts the
+    // messages beside its fields, under the labels the person sees.
     const fields = fieldsOf(err);
-    const named = Object.keys(fields).join(', ');
+    const count = Object.keys(fields).length;
     return {
       status: 400,
-      body: { error: { code: 'invalid_input', message: `Please check: ${named}.`, fields } },
+      body: { error: { code: 'invalid_input', message: count === 1 ? 'One answer needs a change.' : `${count} answers need a change.`, fields } },
     };
   }
   if (err instanceof UniqueConstraintError) {

@@ -1,4 +1,4 @@
-import { Router, type Request, type Response } from 'express';
+import express, { Router, type Request, type Response } from 'express';
 import { Enrollment, Milestone, Report, User } from '../../db/models';
 import type { AppDeps } from '../app';
 import { requireStudio } from '../auth/guards';
@@ -64,46 +64,80 @@ export function trialMailRouter(deps: AppDeps): Router {
   return router;
 }
 
-function page(title: string, body: string): string {
-  const esc = (v: string) => v.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+const esc = (v: string) => v.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/** A small page of its own (no app needed): the opt-out link is opened from an e-mail. */
+function page(title: string, body: string, form?: { action: string; button: string }): string {
+  const button = form
+    ? `<form method="post" action="${esc(form.action)}"><input type="hidden" name="confirm" value="stop">` +
+      `<button type="submit" style="font:inherit;font-weight:bold;color:#fff;background:#2E5E58;border:0;border-radius:6px;padding:12px 20px;min-height:44px;cursor:pointer">${esc(form.button)}</button></form>`
+    : '';
   return (
     `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">` +
-    `<title>${esc(title)} · Basted</title></head>` +
+    `<meta name="robots" content="noindex"><title>${esc(title)} · Basted</title></head>` +
     `<body style="font-family:Helvetica,Arial,sans-serif;color:#1F1D1A;max-width:560px;margin:40px auto;padding:0 16px;line-height:1.5">` +
-    `<p style="font-weight:bold;color:#2E5E58;font-size:18px">Basted</p><h1 style="font-size:20px">${esc(title)}</h1><p>${esc(body)}</p></body></html>`
+    `<p style="font-weight:bold;color:#2E5E58;font-size:18px">Basted</p><h1 style="font-size:20px">${esc(title)}</h1><p>${esc(body)}</p>${button}</body></html>`
   );
 }
 
+const BAD_LINK = ['This link does not work', 'The link is incomplete or was not made by Basted. Change what mail you get from your profile instead.'] as const;
+
 /**
- * Mounted at /api/mail: the one-click opt-out. The signed link is the credential (no sign-in),
- * and it can only turn one kind of optional mail off for the person it was made for.
+ * Mounted at /api/mail: the opt-out link of optional mail. The signed link is the credential (no
+ * sign-in), and it can only turn one kind of optional mail off for the person it was made for.
+ * Opening it (GET) changes nothing: mail scanners open links on their own. The page it shows
+ * says what will stop and has a button that stops it (POST). Mail programs that offer
+ * unsubscribing themselves POST straight to the same address (RFC 8058 one-click).
  */
 export function mailLinksRouter(deps: AppDeps): Router {
   const router = Router();
-  const optOut = async (token: string) => {
+  const read = async (token: string) => {
     const claims = readOptOutToken(token, deps.config.auth);
     if (!claims) return null;
     const user = await User.findByPk(claims.userId);
-    if (!user) return null;
-    await user.update({ [OPTIONAL_KINDS[claims.kind].field]: false });
-    return claims.kind;
+    return user ? { user, kind: claims.kind } : null;
   };
   router.get('/opt-out/:token', async (req, res) => {
-    const kind = await optOut(String(req.params.token));
+    const found = await read(String(req.params.token));
     res.setHeader('Cache-Control', 'no-store');
-    if (!kind) {
-      res.status(400).type('html').send(page('This link does not work', 'The link is incomplete or was not made by Basted. Change what mail you get from your profile instead.'));
+    if (!found) {
+      res.status(400).type('html').send(page(...BAD_LINK));
+      return;
+    }
+    const { label, field } = OPTIONAL_KINDS[found.kind];
+    if (!found.user[field]) {
+      res.type('html').send(page('This mail is already off', `You no longer get ${label}. You can turn it back on from your profile.`));
       return;
     }
     res
       .type('html')
-      .send(page('Done: no more of this mail', `You will no longer get ${OPTIONAL_KINDS[kind].label}. Mail about your account (such as password resets) still reaches you. You can turn it back on from your profile.`));
+      .send(
+        page(`Stop ${label}?`, `You will no longer get ${label}. Mail about your account (such as password resets) still reaches you, and you can turn this back on from your profile.`, {
+          action: req.originalUrl.split('?')[0],
+          button: `Stop ${label}`,
+        }),
+      );
   });
-  // RFC 8058 one-click: mail programs POST to the List-Unsubscribe address.
-  router.post('/opt-out/:token', async (req, res) => {
-    const kind = await optOut(String(req.params.token));
-    if (!kind) throw badRequest('This opt-out link is not valid.', { token: 'is not valid' });
-    res.json({ turnedOff: kind });
+  // The page's button (a form: confirm=stop), or a mail program's one-click POST
+  // (List-Unsubscribe=One-Click, RFC 8058 section 3.2).
+  router.post('/opt-out/:token', express.urlencoded({ extended: false, limit: '1kb' }), async (req, res) => {
+    const fromPage = (req.body as Record<string, unknown> | undefined)?.confirm === 'stop';
+    const found = await read(String(req.params.token));
+    res.setHeader('Cache-Control', 'no-store');
+    if (!found) {
+      if (fromPage) {
+        res.status(400).type('html').send(page(...BAD_LINK));
+        return;
+      }
+      throw badRequest('This opt-out link is not valid.', { token: 'is not valid' });
+    }
+    const { label, field } = OPTIONAL_KINDS[found.kind];
+    await found.user.update({ [field]: false });
+    if (fromPage) {
+      res.type('html').send(page('Done: no more of this mail', `You will no longer get ${label}. Mail about your account (such as password resets) still reaches you. You can turn it back on from your profile.`));
+      return;
+    }
+    res.json({ turnedOff: found.kind });
   });
   return router;
 }

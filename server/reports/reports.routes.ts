@@ -4,11 +4,11 @@ import { z } from 'zod';
 import { requireStudio, requireUser } from '../auth/guards';
 import { otherTextKey } from '../domain/schemas/findings';
 import { otherMappingsOf } from '../findings/findings.service';
-import { reportDraftSchema } from '../domain/schemas/reports';
+import { countedAlterations, reportSaveSchema, reportSubmitSchema } from '../domain/schemas/reports';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { loadTrial } from '../trials/trials.service';
-import { getReport, saveReport, submitReport, trialReports, type Stage } from './reports.service';
+import { getReport, saveReport, StaleReportError, submitReport, trialReports, type Stage } from './reports.service';
 
 const stageParam = z.object({ stage: z.enum(['check-in', 'final'], { error: 'The report is the check-in or the final one' }) });
 const listQuery = z.object({
@@ -29,14 +29,26 @@ export function myReportsRouter(): Router {
   router.get(base, ...guard, async (req, res) => {
     res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
   });
+  // A stale save or submission: 409 with the report as it now is, so the sender can put its
+  // changes on top of it and try again.
+  const answerStale = (res: Response, error: unknown) => {
+    if (!(error instanceof StaleReportError)) throw error;
+    res.status(409).json({ error: { code: error.code, message: error.message }, report: error.current });
+  };
   // Saved as the tester goes: a reload or a lost connection loses nothing already sent.
-  router.put(base, ...guard, validate({ body: reportDraftSchema }), async (req, res) => {
-    await saveReport(String(req.params.enrollmentId), stage(res), res.locals.user!, res.locals.body);
-    res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
+  router.put(base, ...guard, validate({ body: reportSaveSchema }), async (req, res) => {
+    try {
+      res.json(await saveReport(String(req.params.enrollmentId), stage(res), res.locals.user!, res.locals.body));
+    } catch (error) {
+      answerStale(res, error);
+    }
   });
-  router.post(`${base}/submit`, ...guard, async (req, res) => {
-    await submitReport(String(req.params.enrollmentId), stage(res), res.locals.user!);
-    res.json(await getReport(String(req.params.enrollmentId), stage(res), res.locals.user!));
+  router.post(`${base}/submit`, ...guard, validate({ body: reportSubmitSchema }), async (req, res) => {
+    try {
+      res.json(await submitReport(String(req.params.enrollmentId), stage(res), res.locals.user!, res.locals.body));
+    } catch (error) {
+      answerStale(res, error);
+    }
   });
   return router;
 }
@@ -75,9 +87,10 @@ export function trialReportsRouter(): Router {
         stretch_pct: f?.stretchPct ?? '',
         one_way: f ? f.napped : '',
       };
-      const alterations = r.content.alterations ?? [];
+      // Rows the tester has not finished (no kind or no amount yet) are not alterations yet.
+      const alterations = countedAlterations(r.content);
       return alterations.length
-        ? alterations.map((a) => ({ ...base, area: a.area, kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, read_as: a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? '') : '', amount_mm: a.amountMm, where: a.where, note: a.note }))
+        ? alterations.map((a) => ({ ...base, area: a.area ?? '', kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, read_as: a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? '') : '', amount_mm: a.amountMm, where: a.where ?? '', note: a.note }))
         : [{ ...base, area: '', kind: '', read_as: '', amount_mm: '', where: '', note: '' }];
     });
     res.type('text/csv').attachment(`${trial.slug}-reports.csv`).send(Papa.unparse(rows, { newline: '\r\n' }));

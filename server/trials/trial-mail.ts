@@ -1,5 +1,6 @@
 import { PatternSize, User, type Application, type Trial } from '../../db/models';
 import type { Config } from '../config';
+import { formatInZone } from '../domain/time-zones';
 import { MILESTONE_LABELS, TESTER_MILESTONES } from '../domain/trials';
 import type { Mailer } from '../mail/mailer';
 import { declinedMail, selectedMail, waitlistedMail, type MailContent, type OptOut } from '../mail/templates';
@@ -7,9 +8,9 @@ import { optOutFor, send as sendMail } from '../outbox/outbox.service';
 import type { DecisionEffects } from './trials.service';
 import { milestoneMap, studioOf } from './trials.service';
 
-/** A date and time in words, in the given time zone (the tester's or the studio's). */
+/** A date and time in words, in the given time zone (the tester’s or the studio’s), the zone named. */
 export function formatDue(date: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'full', timeStyle: 'short', timeZone }).format(date);
+  return formatInZone(date, timeZone);
 }
 
 /**

@@ -3,7 +3,8 @@ import type { z } from 'zod';
 import { Application, Enrollment, Membership, Milestone, Pattern, PatternSize, PatternVariant, Studio, Trial, User } from '../../db/models';
 import { bestWaitlisted, coverageGrid, proposeSelection, type Applicant, type CoverageTargets } from '../domain/coverage';
 import type { createTrialSchema, decideSchema, updateTrialSchema } from '../domain/schemas/trials';
-import { MILESTONE_KINDS, type MilestoneKind } from '../domain/trials';
+import { formatInZone } from '../domain/time-zones';
+import { MILESTONE_KINDS, milestoneOrderProblems, type MilestoneKind } from '../domain/trials';
 import type { LengthUnit } from '../domain/units';
 import { badRequest, conflict, notFound } from '../errors';
 
@@ -69,6 +70,16 @@ function checkAgainstPattern(pattern: Pattern, coverage: z.output<typeof createT
   if (Object.keys(fields).length) throw badRequest('The coverage targets do not fit the pattern.', fields);
 }
 
+/** The trial's dates after this change, in order, or a 400 naming each date out of order. */
+async function checkMilestoneOrder(studioId: string, trialId: string | null, changes: Partial<Record<MilestoneKind, string>>) {
+  const current = trialId ? await Milestone.findAll({ where: { trialId } }) : [];
+  const dates: Partial<Record<MilestoneKind, Date | string>> = Object.fromEntries(current.map((m) => [m.kind, m.dueAt]));
+  Object.assign(dates, changes);
+  const zone = (await Studio.findByPk(studioId))?.timeZone ?? 'UTC';
+  const problems = milestoneOrderProblems(dates, (at) => formatInZone(at, zone));
+  if (Object.keys(problems).length) throw badRequest('The dates are out of order: each must come on or after the one before it.', problems);
+}
+
 async function saveMilestones(trialId: string, milestones: Partial<Record<MilestoneKind, string>>, transaction: Transaction) {
   for (const [kind, iso] of Object.entries(milestones)) {
     const existing = await Milestone.findOne({ where: { trialId, kind }, transaction });
@@ -87,6 +98,7 @@ export async function createTrial(studioId: string, input: z.output<typeof creat
   });
   if (!pattern) throw badRequest('Choose one of the studio’s patterns.', { patternId: 'is not a pattern of this studio' });
   checkAgainstPattern(pattern, input.coverage);
+  await checkMilestoneOrder(studioId, null, input.milestones);
   const id = await Trial.sequelize!.transaction(async (transaction) => {
     const trial = await Trial.create(
       {
@@ -112,6 +124,7 @@ export async function updateTrial(studioId: string, trialId: string, input: z.ou
   if (input.state === 'open' && !(trial.coverage.sizes.length || input.coverage?.sizes.length)) {
     throw badRequest('Say which sizes the trial wants before opening the call.', { state: 'set the coverage targets first' });
   }
+  if (input.milestones) await checkMilestoneOrder(studioId, trial.id, input.milestones);
   await Trial.sequelize!.transaction(async (transaction) => {
     const { milestones, ...fields } = input;
     await trial.update(fields, { transaction });

@@ -83,6 +83,30 @@ describe('MeasurementField', () => {
     expect(screen.getByLabelText('Hip').props.value).toBe('40 in');
   });
 
+  it('reads a height in feet and inches: "5 ft 2" from a metric user is 62 in = 1574.8 mm, shown as 157.5 cm', () => {
+    const onChangeMm = jest.fn();
+    render(<Harness unit="cm" onChangeMm={onChangeMm} />);
+    typeAndLeave('5 ft 2');
+    expect(onChangeMm.mock.calls[0][0]).toBeCloseTo(1574.8, 9);
+    expect(screen.getByLabelText('Hip').props.value).toBe('157.5 cm');
+    expect(screen.queryByRole('alert')).toBeNull();
+  });
+
+  it('with commitWhileTyping, hands on each readable value as it is typed and leaves the text alone until blur', () => {
+    const onChangeMm = jest.fn();
+    render(<MeasurementField label="Amount" valueMm={null} unit="in" allowNegative commitWhileTyping onChangeMm={onChangeMm} />);
+    const input = screen.getByLabelText('Amount');
+    fireEvent(input, 'focus');
+    fireEvent.changeText(input, '-1');
+    fireEvent.changeText(input, '-1 1/');
+    fireEvent.changeText(input, '-1 1/2');
+    // "-1 1/" is not readable: nothing is handed on for it.
+    expect(onChangeMm).toHaveBeenCalledTimes(2);
+    expect(onChangeMm.mock.calls[0][0]).toBeCloseTo(-25.4, 9);
+    expect(onChangeMm.mock.calls[1][0]).toBeCloseTo(-38.1, 9);
+    expect(input.props.value).toBe('-1 1/2');
+  });
+
   it('shows a metric user centimetres to one decimal: 35 typed → 350 mm → "35.0 cm"', () => {
     const onChangeMm = jest.fn();
     render(<Harness unit="cm" onChangeMm={onChangeMm} />);

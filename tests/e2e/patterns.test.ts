@@ -195,9 +195,36 @@ describe('patterns and size charts in Chromium', () => {
 
     const sizePicker = page.getByRole('radiogroup', { name: 'Body: size' });
     await sizePicker.getByRole('radio', { name: '6' }).click();
-    expect(await page.getByLabel('Body height, size 6').count()).toBe(1);
-    expect(await page.getByLabel('Body height, size 4').count()).toBe(0);
+    // One size shown at a time on a phone (the others stay in the page, hidden, with what was typed).
+    expect(await page.getByLabel('Body height, size 6').isVisible()).toBe(true);
+    expect(await page.getByLabel('Body height, size 4').isVisible()).toBe(false);
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'chart-editor-phone.png') });
+
+    // A bust of "320" (inches, for this owner) cannot be right: the chart is not saved, and the
+    // cell is named, even after switching to another size.
+    await sizePicker.getByRole('radio', { name: '4' }).click();
+    const bust4 = page.getByLabel('Body bust, size 4');
+    await bust4.fill('320');
+    await bust4.blur();
+    await page.getByText(/^Body bust, size 4: is too long to be right/).waitFor();
+    await sizePicker.getByRole('radio', { name: '6' }).click();
+    await page.getByRole('button', { name: 'Save size chart' }).click();
+    await page.getByText('Not saved: one value could not be read. Correct it first; nothing was changed.').waitFor();
+    await page.getByText(/^• Body bust, size 4: is too long to be right/).waitFor();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'chart-editor-unreadable-phone.png'), fullPage: true });
+    expect(await page.getByText('Size chart saved.').count()).toBe(0);
+    const stored = await request(t.app).get(`/api/studios/${studio.id}/patterns/${created.body.id}`).set({ Authorization: bearer(owner, t.config) });
+    expect(stored.body.chart.sizes.map((x: { bodyMm: Record<string, number> }) => x.bodyMm.bust)).toEqual([560, 600]);
+
+    // Corrected, it saves what the field shows.
+    await sizePicker.getByRole('radio', { name: '4' }).click();
+    expect(await bust4.inputValue()).toBe('320');
+    await bust4.fill('22 1/2');
+    await bust4.blur();
+    await page.getByRole('button', { name: 'Save size chart' }).click();
+    await page.getByText('Size chart saved.').waitFor();
+    const saved = await request(t.app).get(`/api/studios/${studio.id}/patterns/${created.body.id}`).set({ Authorization: bearer(owner, t.config) });
+    expect(saved.body.chart.sizes[0].bodyMm.bust).toBeCloseTo(22.5 * IN, 9);
     expect(h.errors).toEqual([]);
   });
 });

@@ -33,7 +33,7 @@ describe('a tester’s own account, in Chromium', () => {
     await waist.blur();
     await page.getByText(/^Waist: could not be read/).waitFor();
     await page.getByRole('button', { name: 'Save profile' }).click();
-    await page.getByText('Please correct: Waist.').waitFor();
+    await page.getByText('Not saved: Waist could not be read. Correct it first.').waitFor();
 
     await waist.fill('81.5 cm');
     await waist.blur();

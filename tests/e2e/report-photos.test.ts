@@ -3,6 +3,7 @@ import type { Page } from 'playwright-core';
 import { Draft, Milestone, Pattern, PatternSize, Trial, type User } from '../../db/models';
 import { addMember, createStudio, createUser, TEST_PASSWORD, enrolTester } from '../support/factories';
 import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { savedAll } from '../support/report-page';
 import { jpegWithGpsAndOrientation } from '../support/sample-files';
 
 const PHONE = { width: 390, height: 844 };
@@ -56,9 +57,9 @@ describe('a tester’s check-in and final report with photos, on a phone, and th
     await page.getByRole('radiogroup', { name: 'Fit at the rise' }).getByRole('radio', { name: /^-1 / }).click();
     await page.getByLabel('Overall verdict').fill('The toile rise is short at the back.');
     await addPhoto(page, 'side', photo('toile-side.jpg'));
-    await page.getByText('All changes saved.').waitFor();
+    await savedAll(page);
     await page.getByRole('button', { name: 'Submit the toile check-in' }).click();
-    await page.getByText('Submitted. Thank you! You can still change it until the due time.').waitFor();
+    await page.getByText(/^Submitted .*\. Thank you! You can still change it until the due time\.$/).waitFor();
 
     // The final report: fabric, an alteration, and front, side and back photos.
     await page.goto('/my-trials');
@@ -84,9 +85,9 @@ describe('a tester’s check-in and final report with photos, on a phone, and th
     await addPhoto(page, 'side', photo('side.jpg'));
     await addPhoto(page, 'back', photo('back.jpg'));
     await page.getByLabel('Overall verdict').fill('Comfortable once the back rise was lengthened.');
-    await page.getByText('All changes saved.').waitFor();
+    await savedAll(page);
     await page.getByRole('button', { name: 'Submit the final report' }).click();
-    await page.getByText('Submitted. Thank you! You can still change it until the due time.').waitFor();
+    await page.getByText(/^Submitted .*\. Thank you! You can still change it until the due time\.$/).waitFor();
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'final-report-photos-phone.png'), fullPage: true });
 
     // A reload keeps everything, the photos included.

@@ -64,6 +64,10 @@ describe('a fit trial from call to selection, in Chromium', () => {
     expect((await staff.request.post('/api/auth/sign-in', { data: { email: coordinator.email, password: TEST_PASSWORD } })).status()).toBe(200);
     const page = await h.newPage(staff, WIDE);
     await page.goto('/trials');
+    // No pattern chosen: the banner names the field by its label, not by its name in the code.
+    await page.getByLabel('Trial title').fill('No pattern yet');
+    await page.getByRole('button', { name: 'Create trial' }).click();
+    await page.getByText('One answer needs a change. Please check: Pattern to test.').waitFor();
     await page.getByRole('radio', { name: 'Barrel-leg trousers' }).click();
     await page.getByLabel('Trial title').fill('Barrel-leg trousers: fit round one');
     await page.getByRole('button', { name: 'Create trial' }).click();
@@ -78,6 +82,16 @@ describe('a fit trial from call to selection, in Chromium', () => {
     const at = (days: number) => toLocalText(new Date(Date.now() + days * DAY), 'Europe/Lisbon');
     await page.getByLabel('Applications close').fill(at(7));
     await page.getByLabel('Toile check-in due').fill(at(14));
+    // Out of order, and one date in the past: the order is refused, the past date is pointed out.
+    await page.getByLabel('Final report due').fill(at(10));
+    await page.getByLabel('Testers chosen').fill(at(-1));
+    await page.getByText('This date is in the past: check it before saving.').waitFor();
+    await page.getByRole('button', { name: 'Save call and dates' }).click();
+    await page.getByText('The dates are out of order: each must come on or after the one before it. Nothing was saved.').waitFor();
+    await page.getByText(/^Testers chosen: is before “Applications close” \(/).waitFor();
+    await page.getByText(/^Final report due: is before “Toile check-in due” \(/).waitFor();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'trial-dates-out-of-order-wide.png'), fullPage: true });
+    await page.getByLabel('Testers chosen').fill(at(8));
     await page.getByLabel('Final report due').fill(at(28));
     await page.getByRole('radiogroup', { name: 'State' }).getByRole('radio', { name: 'Call open' }).click();
     await page.getByRole('button', { name: 'Save call and dates' }).click();

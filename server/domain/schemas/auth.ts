@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isTimeZone } from '../time-zones';
 
 export const emailSchema = z
   .string({ error: 'Enter your e-mail address' })
@@ -14,8 +15,21 @@ export const passwordSchema = z
 
 export const nameSchema = z.string({ error: 'Enter your name' }).trim().min(1, 'Enter your name').max(120, 'Use at most 120 characters');
 
-export const signUpSchema = z.object({ name: nameSchema, email: emailSchema, password: passwordSchema });
-export type SignUpInput = z.infer<typeof signUpSchema>;
+/**
+ * The new account's time zone, for reminders on the person's own mornings and times shown in it;
+ * the sign-up form fills in the device's zone. Without one, UTC.
+ */
+export const signUpSchema = z.object({
+  name: nameSchema,
+  email: emailSchema,
+  password: passwordSchema,
+  timeZone: z
+    .string({ error: 'Choose a time zone' })
+    .trim()
+    .refine(isTimeZone, 'Choose a time zone such as Europe/London or America/Chicago')
+    .default('UTC'),
+});
+export type SignUpInput = z.input<typeof signUpSchema>;
 
 export const signInSchema = z.object({
   email: emailSchema,

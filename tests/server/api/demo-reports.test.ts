@@ -88,7 +88,7 @@ describe('the demo trial: two drafts, check-ins and final reports, photos, and f
     for (const r of enrollments.flatMap((e) => reportsOf(e))) {
       expect(reportDraftSchema.parse(r.content)).toEqual(r.content);
       if (r.submittedAt) expect(reportCompleteSchema.safeParse(r.content).success).toBe(true);
-      for (const a of r.content.alterations ?? []) expect(kinds.has(a.kind)).toBe(true);
+      for (const a of r.content.alterations ?? []) expect(kinds.has(a.kind ?? '')).toBe(true);
       for (const area of Object.keys(r.content.fit ?? {})) expect(areas.has(area)).toBe(true);
     }
     // As after a real submission, the stored findings of both drafts are computed.

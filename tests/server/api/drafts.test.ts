@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Draft, DraftFile, Trial } from '../../../db/models';
+import { Draft, DraftFile, Enrollment, Trial } from '../../../db/models';
 import { addMember, bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { waitForMessage } from '../../support/inbox';
 import { buildTestApp, type TestApp } from '../../support/test-app';
@@ -69,6 +69,21 @@ describe('draft files', () => {
     const list = await request(t.app).get(`/api/studios/${w.studio.id}/patterns/${patternId}/drafts`).set(as(w.users.grader));
     const latestA4 = list.body[0].files.find((f: { kind: string }) => f.kind === 'print-a4');
     expect(latestA4.downloadedBy.map((d: { name: string }) => d.name)).toEqual([w.users.tester.name]);
+  });
+
+  it('a tester who finished keeps the draft files; one who left the trial loses them', async () => {
+    const finished = await createUser('finished');
+    const left = await createUser('left');
+    const sizeId = (await Enrollment.findOne({ where: { trialId } }))!.sizeId;
+    const done = await enrolTester(trialId, finished.id, sizeId);
+    await done.enrollment.update({ status: 'finished' });
+    const gone = await enrolTester(trialId, left.id, sizeId);
+    await gone.enrollment.update({ status: 'dropped' });
+    const file = await DraftFile.findOne({ include: [{ model: Draft, as: 'draft', where: { patternId }, required: true }] });
+    expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(finished))).status).toBe(200);
+    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(finished))).status).toBe(200);
+    expect((await request(t.app).get(`/api/me/trials/${trialId}/drafts`).set(as(left))).status).toBe(403);
+    expect((await request(t.app).post(`/api/draft-files/${file!.id}/link`).set(as(left))).status).toBe(403);
   });
 
   it('a tester of another trial gets 403 for the trial’s drafts and for a link, and nothing is logged', async () => {

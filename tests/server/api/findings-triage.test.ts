@@ -57,7 +57,7 @@ describe('stored findings, triage, notes, thresholds and "other" alterations', (
     const put = await request(t.app)
       .put(`/api/me/enrollments/${enrollment.id}/reports/final`)
       .set(as(user))
-      .send({ sizeSewn: '8', draftVersion: 1, fit: { rise: -1 }, verdict: 'Short in the back rise.', alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 20, where: 'back', note: '', otherText: '' }] });
+      .send({ baseVersion: 0, changes: { sizeSewn: '8', draftVersion: 1, fit: { rise: -1 }, verdict: 'Short in the back rise.', alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 20, where: 'back', note: '', otherText: '' }] } });
     expect(put.status).toBe(200);
     expect((await request(t.app).post(`/api/me/enrollments/${enrollment.id}/reports/final/submit`).set(as(user))).status).toBe(200);
     const after = (await FindingSnapshot.findOne({ where: { trialId: trial.id, draft: '1' } }))!;

@@ -98,6 +98,22 @@ describe('migrations', () => {
     });
   });
 
+  it('report versions: down removes the version and prefilled columns of reports, up adds them back', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      await migrateUp(sequelize);
+      const columns = async () =>
+        (
+          await sequelize.query<{ name: string }>("SELECT column_name::text AS name FROM information_schema.columns WHERE table_name = 'reports' ORDER BY 1", { type: QueryTypes.SELECT })
+        ).map((r) => r.name);
+      expect(await columns()).toEqual(expect.arrayContaining(['version', 'prefilled']));
+      await createMigrator(sequelize).down({ to: '0011-report-saves' });
+      expect(await columns()).not.toContain('version');
+      expect(await columns()).not.toContain('prefilled');
+      await migrateUp(sequelize);
+      expect(await columns()).toEqual(expect.arrayContaining(['version', 'prefilled']));
+    });
+  });
+
   it('the demo studio loads twice without duplicating anything', async () => {
     await withScratchDatabase(async (sequelize) => {
       await migrateUp(sequelize);

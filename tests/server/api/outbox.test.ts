@@ -203,6 +203,43 @@ describe('opt-out links', () => {
     expect((await User.findByPk(user.id))!.mailReminders).toBe(true);
   });
 
+  it('opening the link changes nothing: it asks, and only the button (POST) stops the mail', async () => {
+    const user = await createUser('scanned');
+    const url = new URL(optOutUrl(h.t.config, user.id, 'reminders'));
+    // A mail scanner opens the link: a page that asks, and no change.
+    const opened = await request(h.t.app).get(url.pathname);
+    expect(opened.status).toBe(200);
+    expect(opened.headers['cache-control']).toBe('no-store');
+    expect(opened.text).toContain('<h1 style="font-size:20px">Stop reminders about due dates?</h1>');
+    expect(opened.text).toContain(`<form method="post" action="${url.pathname}">`);
+    expect(opened.text).toContain('<input type="hidden" name="confirm" value="stop">');
+    expect((await User.findByPk(user.id))!.mailReminders).toBe(true);
+    await request(h.t.app).get(url.pathname).expect(200);
+    expect((await User.findByPk(user.id))!.mailReminders).toBe(true);
+
+    // The person presses the button.
+    const stopped = await request(h.t.app).post(url.pathname).type('form').send({ confirm: 'stop' });
+    expect(stopped.status).toBe(200);
+    expect(stopped.headers['content-type']).toMatch(/text\/html/);
+    expect(stopped.text).toContain('Done: no more of this mail');
+    expect((await User.findByPk(user.id))!.mailReminders).toBe(false);
+    // Opened again, the page says it is already off.
+    expect((await request(h.t.app).get(url.pathname)).text).toContain('This mail is already off');
+  });
+
+  it('a mail program’s one-click POST (List-Unsubscribe=One-Click, RFC 8058) stops the mail without a page', async () => {
+    const user = await createUser('one-click');
+    const url = new URL(optOutUrl(h.t.config, user.id, 'trial-news'));
+    const res = await request(h.t.app).post(url.pathname).type('form').send('List-Unsubscribe=One-Click');
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ turnedOff: 'trial-news' });
+    expect((await User.findByPk(user.id))!.mailTrialNews).toBe(false);
+    // A damaged link pressed on the page answers with a page, and changes nothing.
+    const bad = await request(h.t.app).post('/api/mail/opt-out/damaged').type('form').send({ confirm: 'stop' });
+    expect(bad.status).toBe(400);
+    expect(bad.text).toContain('This link does not work');
+  });
+
   it('a session token is not an opt-out link, and an opt-out link is not a session', async () => {
     const user = await createUser('tokens');
     const session = bearer(user, h.t.config).slice('Bearer '.length);

@@ -41,8 +41,9 @@ describe('reminders to testers', () => {
     expect(h.capture.to(auckland.email).map((m) => m.subject)).toEqual(['Due in 3 days: final report, Reminder trial']);
 
     // The due time is written in the tester's own zone.
-    expect(h.capture.to(la.email)[0].text).toContain('Thursday, 10 December 2026 at 09:00');
-    expect(h.capture.to(auckland.email)[0].text).toContain('Friday, 11 December 2026 at 06:00');
+    // Each in the tester's own zone, named.
+    expect(h.capture.to(la.email)[0].text).toContain('Thursday, 10 December 2026 at 09:00 (America/Los_Angeles)');
+    expect(h.capture.to(auckland.email)[0].text).toContain('Friday, 11 December 2026 at 06:00 (Pacific/Auckland)');
 
     // Day before, on the day, and two days late, each once; Auckland has no "today" mail (due 06:00 there).
     for (const at of ['2026-12-09T08:05:00Z', '2026-12-09T16:05:00Z', '2026-12-09T19:05:00Z', '2026-12-10T08:05:00Z', '2026-12-10T16:05:00Z', '2026-12-10T19:05:00Z']) {
@@ -58,7 +59,8 @@ describe('reminders to testers', () => {
     expect(rows).toHaveLength(11);
     expect(rows.every((r) => r.status === 'sent' && r.attempts === 1 && r.providerMessageId)).toBe(true);
 
-    // The opt-out link in the mail turns reminders off without signing in.
+    // The opt-out link in the mail asks first (opening it changes nothing), then its button
+    // turns reminders off without signing in.
     const mail = h.capture.to(lisbon.email)[0];
     expect(mail.headers['list-unsubscribe']).toEqual(expect.stringContaining('/api/mail/opt-out/'));
     expect(mail.headers['list-unsubscribe-post']).toBe('List-Unsubscribe-Post: List-Unsubscribe=One-Click');
@@ -67,6 +69,8 @@ describe('reminders to testers', () => {
     expect(page.status).toBe(200);
     expect(page.type).toBe('text/html');
     expect(page.text).toContain('You will no longer get reminders about due dates');
+    expect((await User.findByPk(lisbon.id))!.mailReminders).toBe(true);
+    await request(h.t.app).post(link).type('form').send({ confirm: 'stop' }).expect(200);
     expect((await User.findByPk(lisbon.id))!.mailReminders).toBe(false);
     expect((await User.findByPk(lisbon.id))!.mailTrialNews).toBe(true);
   });
@@ -115,7 +119,7 @@ describe('reminders to testers', () => {
 
     const url = `/api/me/enrollments/${tester.enrollment.id}/reports/final`;
     const auth = { Authorization: bearer(tester.user, h.t.config) };
-    await request(h.t.app).put(url).set(auth).send({ sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Fits well.' }).expect(200);
+    await request(h.t.app).put(url).set(auth).send({ baseVersion: 0, changes: { sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Fits well.' } }).expect(200);
     expect((await request(h.t.app).post(`${url}/submit`).set(auth)).status).toBe(200);
     expect(await queued.reload()).toMatchObject({ status: 'cancelled', lastError: 'Not sent: the tester has submitted it.' });
     await tick(new Date(threeDays.sendAt.getTime() + 10 * 60_000).toISOString());
@@ -175,8 +179,9 @@ describe('daily digest to the studio', () => {
     for (const staff of [w.owner, w.coordinator]) {
       const mails = h.capture.to(staff.email);
       expect(mails.map((m) => m.subject)).toEqual(['Overdue in Reminder studio: 4 items']);
-      expect(mails[0].text).toMatch(/Tester America\/Los_Angeles, toile check-in, due Friday, 20 November 2026 at 17:00 \(21 days late\)/);
-      expect(mails[0].text).toMatch(/Tester Pacific\/Auckland, final report, due Thursday, 10 December 2026 at 17:00 \(1 day late\)/);
+      // Times in the studio's zone, named.
+      expect(mails[0].text).toMatch(/Tester America\/Los_Angeles, toile check-in, due Friday, 20 November 2026 at 17:00 \(Europe\/Lisbon\) \(21 days late\)/);
+      expect(mails[0].text).toMatch(/Tester Pacific\/Auckland, final report, due Thursday, 10 December 2026 at 17:00 \(Europe\/Lisbon\) \(1 day late\)/);
       expect(mails[0].text).not.toContain('Tester Europe/Lisbon');
     }
     // The next morning brings the next day's list; a coordinator who turned it off gets a skipped row.

@@ -39,21 +39,21 @@ describe('report sections: what was sewn, fabric used, and the staff filters by 
     expect(empty.body.choices).toMatchObject({ sizes: ['10', '12'], chosenSize: '10', variants: ['Fuller belly'], drafts: [{ version: 1 }, { version: 2, changeNote: 'Rise lengthened' }] });
 
     const fabric = { kind: 'Linen', fibre: '100% linen', widthMm: 54 * IN, usedMm: 2.5 * YD, stretchPct: null, napped: false };
-    const saved = await request(t.app).put(a.url).set(as(a.user)).send({ sizeSewn: '10', variantSewn: 'Fuller belly', draftVersion: 2, fabric });
+    const saved = await request(t.app).put(a.url).set(as(a.user)).send({ baseVersion: 0, changes: { sizeSewn: '10', variantSewn: 'Fuller belly', draftVersion: 2, fabric } });
     expect(saved.status).toBe(200);
     expect(saved.body.content).toMatchObject({ variantSewn: 'Fuller belly', draftVersion: 2, fabric: { kind: 'Linen', napped: false } });
     expect(saved.body.content.fabric.usedMm).toBeCloseTo(2286, 6); // 2 1/2 yd = 2286 mm (1 yd = 0.9144 m exactly)
 
-    const narrow = await request(t.app).put(a.url).set(as(a.user)).send({ fabric: { ...fabric, widthMm: 100, usedMm: -1 } });
+    const narrow = await request(t.app).put(a.url).set(as(a.user)).send({ baseVersion: 1, changes: { fabric: { ...fabric, widthMm: 100, usedMm: -1 } } });
     expect(narrow.status).toBe(400);
-    expect(narrow.body.error.fields).toMatchObject({ 'fabric.widthMm': expect.stringMatching(/30 cm/), 'fabric.usedMm': expect.stringMatching(/more than zero/) });
+    expect(narrow.body.error.fields).toMatchObject({ 'changes.fabric.widthMm': expect.stringMatching(/30 cm/), 'changes.fabric.usedMm': expect.stringMatching(/more than zero/) });
     // The bad change lost nothing already saved.
     expect((await request(t.app).get(a.url).set(as(a.user))).body.content.fabric.widthMm).toBeCloseTo(54 * IN, 6);
   });
 
   it('filters the staff list and the CSV by draft and by variant ("-" is the main pattern)', async () => {
     const b = await tester(2, sizes[1]);
-    await request(t.app).put(b.url).set(as(b.user)).send({ sizeSewn: '12', variantSewn: null, draftVersion: 1, alterations: [{ area: 'waist', kind: 'other', amountMm: -10, where: 'back', otherText: 'Took in the back waist' }] }).expect(200);
+    await request(t.app).put(b.url).set(as(b.user)).send({ baseVersion: 0, changes: { sizeSewn: '12', variantSewn: null, draftVersion: 1, alterations: [{ area: 'waist', kind: 'other', amountMm: -10, where: 'back', otherText: 'Took in the back waist' }] } }).expect(200);
 
     const draft2 = await list('?stage=final&draft=2');
     expect(draft2.body.map((r: { size: string }) => r.size)).toEqual(['10']);

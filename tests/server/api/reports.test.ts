@@ -31,11 +31,11 @@ describe('check-in and final reports', () => {
   it('saves as the tester goes: each part sent replaces that part and keeps the rest; bad parts are named and change nothing', async () => {
     const e = await enrol(w.users.tester.id);
     const url = `/api/me/enrollments/${e.id}/reports/check-in`;
-    await request(t.app).put(url).set(as(w.users.tester)).send({ sizeSewn: 'M', fit: { waist: -1, rise: 1 } }).expect(200);
+    await request(t.app).put(url).set(as(w.users.tester)).send({ baseVersion: 0, changes: { sizeSewn: 'M', fit: { waist: -1, rise: 1 } } }).expect(200);
     const saved = await request(t.app)
       .put(url)
       .set(as(w.users.tester))
-      .send({ alterations: [{ area: 'leg', kind: 'leg-length', amountMm: -1.5 * IN, where: 'both' }] });
+      .send({ baseVersion: 1, changes: { alterations: [{ area: 'leg', kind: 'leg-length', amountMm: -1.5 * IN, where: 'both' }] } });
     expect(saved.status).toBe(200);
     expect(saved.body.content).toMatchObject({ sizeSewn: 'M', fit: { waist: -1, rise: 1 }, alterations: [{ kind: 'leg-length' }] });
     expect(saved.body.content.alterations[0].amountMm).toBeCloseTo(-1.5 * IN, 9); // 1 1/2 in shorter, in mm
@@ -43,15 +43,16 @@ describe('check-in and final reports', () => {
     const bad = await request(t.app)
       .put(url)
       .set(as(w.users.tester))
-      .send({ alterations: [{ area: 'bust', kind: 'bust', amountMm: 12.7, where: 'front' }, { area: 'leg', kind: 'leg-length', amountMm: 0, where: 'both' }] });
+      .send({ baseVersion: 2, changes: { alterations: [{ area: 'bust', kind: 'bust', amountMm: 12.7, where: 'front' }, { area: 'leg', kind: 'leg-length', amountMm: 0, where: 'both' }] } });
     expect(bad.status).toBe(400);
-    expect(Object.keys(bad.body.error.fields)).toEqual(['alterations.1.amountMm']);
-    const wrongGarment = await request(t.app).put(url).set(as(w.users.tester)).send({ alterations: [{ area: 'bust', kind: 'bust', amountMm: 12.7, where: 'front' }] });
+    expect(Object.keys(bad.body.error.fields)).toEqual(['changes.alterations.1.amountMm']);
+    const wrongGarment = await request(t.app).put(url).set(as(w.users.tester)).send({ baseVersion: 2, changes: { alterations: [{ area: 'bust', kind: 'bust', amountMm: 12.7, where: 'front' }] } });
     expect(wrongGarment.status).toBe(400);
     expect(wrongGarment.body.error.fields).toEqual({ 'alterations.0.kind': 'is not an alteration of this garment' });
     // What was saved before is still there (a reload shows it).
     const reread = await request(t.app).get(url).set(as(w.users.tester));
     expect(reread.body.content.alterations).toHaveLength(1);
+    expect(reread.body.version).toBe(2);
     expect(reread.body.editable).toBe(true);
   });
 
@@ -61,7 +62,7 @@ describe('check-in and final reports', () => {
     const early = await request(t.app).post(`${url}/submit`).set(as(w.users.grader));
     expect(early.status).toBe(400);
     expect(Object.keys(early.body.error.fields).sort()).toEqual(['draftVersion', 'fit', 'sizeSewn', 'verdict']);
-    await request(t.app).put(url).set(as(w.users.grader)).send({ sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Comfortable; the rise is a touch short.' }).expect(200);
+    await request(t.app).put(url).set(as(w.users.grader)).send({ baseVersion: 0, changes: { sizeSewn: 'M', draftVersion: 1, fit: { waist: 0 }, verdict: 'Comfortable; the rise is a touch short.' } }).expect(200);
     const first = await request(t.app).post(`${url}/submit`).set(as(w.users.grader));
     expect(first.status).toBe(200);
     expect(first.body.submittedAt).toEqual(expect.any(String));
@@ -74,11 +75,11 @@ describe('check-in and final reports', () => {
     const e = await enrol(w.users.coordinator.id);
     await e.update({ dueOverrides: { 'toile-check-in': new Date(Date.now() - 1000).toISOString() } });
     const url = `/api/me/enrollments/${e.id}/reports/check-in`;
-    const late = await request(t.app).put(url).set(as(w.users.coordinator)).send({ sizeSewn: 'M' });
+    const late = await request(t.app).put(url).set(as(w.users.coordinator)).send({ baseVersion: 0, changes: { sizeSewn: 'M' } });
     expect(late.status).toBe(409);
     expect(late.body.error.message).toMatch(/was due on .*Ask the studio for more time/);
     await e.update({ dueOverrides: { 'toile-check-in': new Date(Date.now() + DAY).toISOString() } });
-    expect((await request(t.app).put(url).set(as(w.users.coordinator)).send({ sizeSewn: 'M' })).status).toBe(200);
+    expect((await request(t.app).put(url).set(as(w.users.coordinator)).send({ baseVersion: 0, changes: { sizeSewn: 'M' } })).status).toBe(200);
   });
 
   it('another tester’s report is not found; the staff see reports filtered and export them as CSV', async () => {
@@ -86,7 +87,7 @@ describe('check-in and final reports', () => {
     await request(t.app)
       .put(`/api/me/enrollments/${e.id}/reports/final`)
       .set(as(w.users.owner))
-      .send({ sizeSewn: 'M', draftVersion: 2, fit: { rise: -2 }, alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 19.05, where: 'back' }], verdict: 'Back rise too short.' })
+      .send({ baseVersion: 0, changes: { sizeSewn: 'M', draftVersion: 2, fit: { rise: -2 }, alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 19.05, where: 'back' }], verdict: 'Back rise too short.' } })
       .expect(200);
     expect((await request(t.app).get(`/api/me/enrollments/${e.id}/reports/final`).set(as(w.users.tester))).status).toBe(403);
 

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Application, Enrollment, Membership } from '../../../db/models';
+import { Application, Enrollment, Membership, Trial } from '../../../db/models';
 import { bearer, createStudioWorld, createUser, type StudioWorld } from '../../support/factories';
 import { waitForMessage } from '../../support/inbox';
 import { buildTestApp, type TestApp } from '../../support/test-app';
@@ -109,6 +109,34 @@ describe('trials: call, applications, coverage, selection, enrollments', () => {
     const missing = await request(t.app).post(`/api/calls/${trial.slug}/applications`).set(as(tester)).send({ ...application, deadlinesConfirmed: false, plannedFabric: '' });
     expect(missing.status).toBe(400);
     expect(Object.keys(missing.body.error.fields).sort()).toEqual(['deadlinesConfirmed', 'plannedFabric']);
+  });
+
+  it('refuses dates out of order (applications close ≤ testers chosen ≤ check-in ≤ final report), naming each, and keeps the stored ones', async () => {
+    const trial = await openTrial([1, 1, 1]);
+    const url = `/api/studios/${w.studio.id}/trials/${trial.id}`;
+    // Chosen before applications close, and the final report due before the check-in.
+    const bad = await request(t.app)
+      .patch(url)
+      .set(staff('coordinator'))
+      .send({ milestones: { selection: new Date(Date.now() + 2 * DAY).toISOString(), 'final-report': new Date(Date.now() + 10 * DAY).toISOString() } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.message).toBe('The dates are out of order: each must come on or after the one before it.');
+    expect(bad.body.error.fields).toEqual({
+      'milestones.selection': expect.stringMatching(/^is before “Applications close” \(.* \(Europe\/Lisbon\)\): testers chosen must come on or after it$/),
+      'milestones.final-report': expect.stringMatching(/^is before “Toile check-in due” /),
+    });
+    const stored = await request(t.app).get(url).set(staff('coordinator'));
+    expect(stored.body.milestones.map((m: { kind: string }) => m.kind)).toEqual(['applications-close', 'toile-check-in', 'final-report']);
+    // A new trial is checked the same way.
+    const created = await request(t.app)
+      .post(`/api/studios/${w.studio.id}/trials`)
+      .set(staff('coordinator'))
+      .send({ patternId: (await Trial.findByPk(trial.id))!.patternId, title: 'Backwards trial', milestones: { 'toile-check-in': '2027-03-10T18:00:00Z', 'final-report': '2027-03-01T18:00:00Z' } });
+    expect(created.status).toBe(400);
+    expect(Object.keys(created.body.error.fields)).toEqual(['milestones.final-report']);
+    // In order (equal dates allowed): saved.
+    const ok = await request(t.app).patch(url).set(staff('coordinator')).send({ milestones: { selection: new Date(Date.now() + 8 * DAY).toISOString(), 'drafts-out': new Date(Date.now() + 8 * DAY).toISOString() } });
+    expect(ok.status).toBe(200);
   });
 
   it('refuses an application after the closing date with the date in words', async () => {

@@ -118,6 +118,25 @@ describe('parseLength accepts the forms of DESIGN.md "Units"', () => {
     expect(mmOf(parseLength(text, preferred, { allowNegative: true }))).toBeCloseTo(mm, 9);
   });
 
+  // Feet and inches, as many people know their height. 1 ft = 12 in = 304.8 mm exactly
+  // (international yard and pound agreement, 1959): 5 ft 2 = 62 in = 1574.8 mm.
+  it.each<[string, LengthUnit, number]>([
+    ['5 ft 2', 'cm', 62 * 25.4],
+    ['5 ft 2', 'in', 62 * 25.4],
+    ["5'2\"", 'cm', 62 * 25.4],
+    ["5' 2\"", 'in', 62 * 25.4],
+    ['5\u2032 2\u2033', 'cm', 62 * 25.4],
+    ['5ft2in', 'in', 62 * 25.4],
+    ['5 feet 2 inches', 'cm', 62 * 25.4],
+    ["5' 2 1/2", 'cm', 62.5 * 25.4],
+    ['5 ft 2.5', 'cm', 62.5 * 25.4],
+    ['5 ft', 'cm', 60 * 25.4],
+    ["6'", 'in', 72 * 25.4],
+    ['62 in', 'cm', 62 * 25.4],
+  ])('feet and inches: %j (preferring %s) → %f mm', (text, preferred, mm) => {
+    expect(mmOf(parseLength(text, preferred))).toBeCloseTo(mm, 9);
+  });
+
   it('never returns a negative zero', () => {
     expect(Object.is(mmOf(parseLength('-0', 'cm', { allowNegative: true })), 0)).toBe(true);
   });
@@ -146,8 +165,10 @@ describe('parseLength refuses anything else, saying what would work', () => {
     ['1 1/2 mm', 'in', /fractions are for inches/],
     ['1 9/8', 'in', /fraction of 1 or more/],
     ['1,250', 'cm', /ambiguous.*1250 or 1\.250/],
-    ["5'6\"", 'in', /feet/],
-    ['5 ft', 'cm', /feet/],
+    ['5.5 ft', 'in', /whole feet and inches, e.g. 5 ft 6/],
+    ['5 ft 14', 'cm', /inches after feet are under 12/],
+    ['5 ft 2 cm', 'in', /could not be read: use feet and inches/],
+    ["-5'", 'in', /cannot be negative/],
     ['2 yd', 'in', /yards/],
     ['6 m', 'cm', /too long/],
     ['5001 mm', 'cm', /too long/],
