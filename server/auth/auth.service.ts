@@ -79,7 +79,8 @@ export async function confirmPasswordReset(input: ResetConfirmInput, auth: Confi
         token: 'has expired or was used already',
       });
     }
-    await reset.update({ usedAt: new Date() }, { transaction });
+    // Every open link of the account is spent with this one: an older e-mail must not reset again.
+    await PasswordReset.update({ usedAt: new Date() }, { where: { userId: reset.userId, usedAt: null }, transaction });
     const user = (await User.findByPk(reset.userId, { transaction, lock: transaction.LOCK.UPDATE }))!;
     await user.update(
       { passwordHash: await bcrypt.hash(input.password, auth.bcryptCost), sessionVersion: user.sessionVersion + 1 },

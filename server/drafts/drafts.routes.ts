@@ -46,7 +46,7 @@ export function patternDraftsRouter(deps: AppDeps): Router {
   const pattern = uuidParam('patternId', 'pattern');
 
   router.get('/', requireStudio('patterns.read', 'see drafts'), pattern, async (req, res) => {
-    res.json((await listDrafts(String(req.params.patternId))).map((d) => serializeDraft(d, true)));
+    res.json((await listDrafts(res.locals.membership!.studioId, String(req.params.patternId))).map((d) => serializeDraft(d, true)));
   });
 
   router.post(

@@ -93,9 +93,12 @@ export async function loadDraft(draftId: string) {
   return (await Draft.findByPk(draftId, { include: [{ model: DraftFile, as: 'files' }], order: [[{ model: DraftFile, as: 'files' }, 'kind', 'ASC']] }))!;
 }
 
-export async function listDrafts(patternId: string) {
+/** The draft history of one of the studio's own patterns; another studio's pattern is not found. */
+export async function listDrafts(studioId: string, patternId: string) {
+  const pattern = await Pattern.findOne({ where: { id: patternId, studioId } });
+  if (!pattern) throw notFound('pattern');
   return Draft.findAll({
-    where: { patternId },
+    where: { patternId: pattern.id },
     include: [{ model: DraftFile, as: 'files', include: [{ model: DraftDownload, as: 'downloads', include: [{ model: User, as: 'user' }] }] }],
     order: [['version', 'DESC']],
   });
