@@ -11,6 +11,7 @@ import type { Config } from './config';
 import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { createLimiters, type Limiters } from './middleware/rate-limit';
 import { callsRouter, myTrialsRouter } from './calls/calls.routes';
 import { draftLinksRouter } from './drafts/drafts.routes';
 import { photosRouter } from './photos/photos.routes';
@@ -27,8 +28,10 @@ export type AppDeps = {
   storage: Storage;
   mailer: Mailer;
 };
+/** What the routers get: the app's dependencies and the rate limits built from them. */
+export type RouteDeps = AppDeps & { limiters: Limiters };
 
-function apiRouter(deps: AppDeps): express.Router {
+function apiRouter(deps: RouteDeps): express.Router {
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(cookieParser());
@@ -70,7 +73,8 @@ function webApp(distDir: string): express.Router {
 export function createApp(deps: AppDeps): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Which proxies to believe about the client's address (TRUST_PROXY): rate limits key on it.
+  app.set('trust proxy', deps.config.trustProxy);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -88,7 +92,7 @@ export function createApp(deps: AppDeps): express.Express {
     }),
   );
   if (deps.config.logRequests) app.use(morgan(deps.config.env === 'production' ? 'combined' : 'dev'));
-  app.use('/api', apiRouter(deps));
+  app.use('/api', apiRouter({ ...deps, limiters: createLimiters(deps.sequelize, deps.config.limits) }));
   app.use(webApp(path.resolve(deps.config.webDist)));
   app.use(errorHandler);
   return app;

@@ -9,6 +9,8 @@ import * as photos from './0006-photos';
 import * as reports from './0007-reports';
 import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
+import * as sessions from './0015-sessions-and-verified-addresses';
+import * as rateLimits from './0016-rate-limits';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -23,4 +25,6 @@ export const migrations: Migration[] = [
   { name: '0007-reports', ...reports },
   { name: '0008-findings', ...findings },
   { name: '0009-mail-outbox', ...mailOutbox },
+  { name: '0015-sessions-and-verified-addresses', ...sessions },
+  { name: '0016-rate-limits', ...rateLimits },
 ];

@@ -2,6 +2,7 @@ import type { Express } from 'express';
 import type { Sequelize } from 'sequelize';
 import { createSequelize } from '../../db/sequelize';
 import { createApp } from '../../server/app';
+import { settleBackgroundWork } from '../../server/background';
 import { loadConfig, type Config } from '../../server/config';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
 import { createStorage, type Storage } from '../../server/storage/storage';
@@ -57,6 +58,8 @@ export function buildTestApp(env: Record<string, string> = {}): TestApp {
     storage,
     mailer,
     async close() {
+      // Work that requests go on with after answering (sign-up, reset mail) ends first.
+      await settleBackgroundWork();
       storage.close();
       mailer.close();
       await release();
