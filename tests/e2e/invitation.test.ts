@@ -25,6 +25,7 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await page.getByLabel('E-mail').fill(designerEmail);
     await page.getByLabel('Password').fill('pins and needles');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'sign-up-check-email-wide.png') });
     await confirmSignUpInBrowser(page, designerEmail);
 
@@ -66,6 +67,7 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await phone.getByLabel('E-mail').fill(graderEmail);
     await phone.getByLabel('Password').fill('grade rules rule');
     await phone.getByRole('button', { name: 'Create account' }).click();
+    await phone.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
     await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'sign-up-check-email-phone.png') });
     // The link in the confirmation e-mail brings the grader back to the invitation, signed in.
     await confirmSignUpInBrowser(phone, graderEmail);
