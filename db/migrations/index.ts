@@ -11,6 +11,7 @@ import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
 import * as sessions from './0015-sessions-and-verified-addresses';
 import * as rateLimits from './0016-rate-limits';
+import * as objectDeletions from './0017-object-deletions';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -27,4 +28,5 @@ export const migrations: Migration[] = [
   { name: '0009-mail-outbox', ...mailOutbox },
   { name: '0015-sessions-and-verified-addresses', ...sessions },
   { name: '0016-rate-limits', ...rateLimits },
+  { name: '0017-object-deletions', ...objectDeletions },
 ];

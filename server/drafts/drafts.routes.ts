@@ -10,7 +10,9 @@ import type { Draft } from '../../db/models';
 import { createDraft, downloadLink, draftsForTrial, listDrafts } from './drafts.service';
 
 // In memory: a draft is checked by content before anything is stored, and files are capped.
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: DRAFT_MAX_BYTES, files: DRAFT_FILE_KINDS.length } });
+// Browsers send file names as UTF-8 without saying so; busboy's default reads them as latin1
+// and stores "café" as "cafÃ©".
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: DRAFT_MAX_BYTES, files: DRAFT_FILE_KINDS.length } });
 const noteSchema = z.object({ changeNote: z.string({ error: 'Say what changed in this draft' }).trim().min(3, 'Say what changed in this draft').max(5000) });
 
 function serializeDraft(draft: Draft, withDownloads: boolean) {

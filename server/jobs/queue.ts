@@ -1,5 +1,8 @@
 import PgBoss from 'pg-boss';
+import type { Sequelize } from 'sequelize';
 import type { OutboxDeps } from '../outbox/outbox.service';
+import { purgeDeletions } from '../storage/object-deletions';
+import type { Storage } from '../storage/storage';
 import { flushOutbox } from '../outbox/outbox.service';
 import { runMailTick } from './tick';
 
@@ -29,7 +32,7 @@ export type JobQueueOptions = {
  * with several instances each cron slot runs once (pg-boss de-duplicates schedules, and the
  * outbox claims rows under SKIP LOCKED, so even two runs at once send nothing twice).
  */
-export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions): Promise<JobQueue> {
+export async function startJobQueue(deps: OutboxDeps & { storage?: Storage; sequelize?: Sequelize }, options: JobQueueOptions): Promise<JobQueue> {
   const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 3, application_name: 'basted-jobs' });
   boss.on('error', (error: unknown) => console.error('[jobs]', error));
   await boss.start();
@@ -45,6 +48,8 @@ export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions):
   });
   await boss.work(OUTBOX_FLUSH_QUEUE, async () => {
     await flushOutbox(deps, new Date());
+    // Stored objects whose rows are gone, left over while the file store was down.
+    if (deps.storage && deps.sequelize) await purgeDeletions(deps.sequelize, deps.storage);
   });
   return {
     boss,

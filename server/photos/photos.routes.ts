@@ -11,7 +11,9 @@ import { loadTrial } from '../trials/trials.service';
 import { trialPhotoWall } from './photo-wall.service';
 import { addPhoto, deletePhoto, myPhotos, ownEnrollment, ownPhoto, photoLink, serializePhoto, setPhotoConsent } from './photos.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
+// Browsers send file names as UTF-8 without saying so; busboy's default reads them as latin1
+// and stores "café" as "cafÃ©".
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
 const photoFields = z.object({
   stage: z.enum(['check-in', 'final'], { error: 'Say whether the photo is for the check-in or the final report' }),
   view: z.enum(['front', 'side', 'back', 'detail'], { error: 'Choose front, side, back or detail' }),

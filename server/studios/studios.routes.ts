@@ -38,7 +38,7 @@ export function studiosRouter(deps: RouteDeps): Router {
   );
 
   router.delete('/:studioId', requireStudio('studio.delete', 'delete the studio'), async (req, res) => {
-    await deleteStudio(res.locals.membership!.studioId);
+    await deleteStudio(res.locals.membership!.studioId, deps);
     res.status(204).end();
   });
 

@@ -6,6 +6,7 @@ import type { createTrialSchema, decideSchema, updateTrialSchema } from '../doma
 import { MILESTONE_KINDS, type MilestoneKind } from '../domain/trials';
 import type { LengthUnit } from '../domain/units';
 import { badRequest, conflict, notFound } from '../errors';
+import { removeEnrollmentPhotos } from '../photos/photos.service';
 
 const ZERO_UUID = '00000000-0000-0000-0000-000000000000';
 
@@ -279,6 +280,9 @@ export async function withdraw(user: User, applicationId: string) {
     const wasSelected = app.status === 'selected';
     await app.update({ status: 'withdrawn', decidedAt: new Date() }, { transaction });
     await Enrollment.update({ status: 'dropped' }, { where: { applicationId: app.id }, transaction });
+    // The tester takes their photos with them, in this same transaction (objects removed after it).
+    const enrollment = await Enrollment.findOne({ where: { applicationId: app.id }, transaction });
+    if (enrollment) await removeEnrollmentPhotos(enrollment.id, transaction);
     await releaseTesterMembership((await Trial.findByPk(app.trialId, { transaction }))!.studioId, app.userId, transaction);
     if (!wasSelected || !app.sizeId) return { application: app, offered: null, offerReason: null };
 
