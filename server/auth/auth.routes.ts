@@ -1,6 +1,7 @@
 import { Router, type Request, type Response } from 'express';
 import type { RouteDeps } from '../app';
 import { track } from '../background';
+import { describeError, type Logger } from '../logger';
 import { currentStudioSchema } from '../domain/schemas/studios';
 import { confirmAddressSchema, resetConfirmSchema, resetRequestSchema, signInSchema, signUpSchema } from '../domain/schemas/auth';
 import { validate } from '../middleware/validate';
@@ -16,11 +17,11 @@ import { clientAddress, rateLimit } from '../middleware/rate-limit';
  * the answer, it cannot show in the answer's timing either. A failure is logged: the person sees
  * no mail arrive and asks again.
  */
-async function answerThenDo(res: Response, status: number, body: unknown, what: string, work: () => Promise<void>) {
+async function answerThenDo(res: Response, status: number, body: unknown, what: string, work: () => Promise<void>, logger: Logger) {
   res.status(status).json(body);
   await track(
     work().catch((error: unknown) => {
-      console.error(`[auth] ${what} failed after the answer:`, error instanceof Error ? error.message : error);
+      logger.error({ err: describeError(error) }, `${what} failed after the answer`);
     }),
   );
 }
@@ -57,6 +58,7 @@ export function authRouter(deps: RouteDeps): Router {
       { message: `We sent an e-mail to ${input.email}. Open the link in it to confirm the address and finish creating your account.` },
       'sign-up',
       () => requestSignUp(input, deps),
+      deps.logger,
     );
   });
 
@@ -92,6 +94,7 @@ export function authRouter(deps: RouteDeps): Router {
     const { email } = res.locals.body;
     await answerThenDo(res, 202, { message: 'If an account uses this address, a link to choose a new password is on its way.' }, 'password reset', () =>
       requestPasswordReset(email, deps),
+    deps.logger,
     );
   });
 

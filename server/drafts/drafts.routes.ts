@@ -6,6 +6,7 @@ import { requireStudio, requireUser } from '../auth/guards';
 import { DRAFT_FILE_KINDS, type DraftFileKind } from '../domain/drafts';
 import { DRAFT_MAX_BYTES } from '../files/content-check';
 import { uuidParam } from '../middleware/uuid-param';
+import { validate } from '../middleware/validate';
 import type { Draft } from '../../db/models';
 import { createDraft, downloadLink, draftsForTrial, listDrafts } from './drafts.service';
 
@@ -56,8 +57,9 @@ export function patternDraftsRouter(deps: AppDeps): Router {
     requireStudio('patterns.write', 'upload drafts'),
     pattern,
     upload.fields(DRAFT_FILE_KINDS.map((name) => ({ name, maxCount: 1 }))),
+    validate({ body: noteSchema }),
     async (req, res) => {
-      const { changeNote } = noteSchema.parse(req.body ?? {});
+      const { changeNote } = res.locals.body as z.output<typeof noteSchema>;
       const files = Object.entries((req.files ?? {}) as Record<string, Express.Multer.File[]>).flatMap(([kind, list]) =>
         list.map((f) => ({ kind: kind as DraftFileKind, originalName: f.originalname, buffer: f.buffer })),
       );
