@@ -11,6 +11,9 @@ import { ZodError } from 'zod';
 import { AppError } from '../errors';
 import { describeError, redactUrl, type Logger } from '../logger';
 
+/** busboy's messages for a multipart or urlencoded body it cannot parse. */
+const BROKEN_FORM = /^(Malformed part header|Unexpected end of form|Malformed urlencoded form|Multipart: Boundary not found|Unsupported content type)/;
+
 type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string> } };
 
 function fieldsOf(error: ZodError): Record<string, string> {
@@ -46,6 +49,10 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
       return { status: 413, body: { error: { code: 'file_too_large', message: `The file for ${field} is too large.`, fields: { [field]: 'is too large' } } } };
     }
     return { status: 400, body: { error: { code: 'invalid_upload', message: `The upload could not be taken: ${err.message}.`, fields: { [field]: err.message } } } };
+  }
+  // busboy (under multer) refuses a multipart body it cannot read with a plain Error.
+  if (err instanceof Error && BROKEN_FORM.test(err.message)) {
+    return { status: 400, body: { error: { code: 'invalid_upload', message: 'The form could not be read (a part of it is malformed). Please send it again.' } } };
   }
   if (err instanceof ForeignKeyConstraintError) {
     // A last line of defence: services check references first and say which ones.
