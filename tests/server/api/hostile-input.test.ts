@@ -54,6 +54,12 @@ const HOSTILE: [string, string][] = [
   ['emoji', JSON.stringify('🧵'.repeat(60))],
   ['right-to-left override', JSON.stringify('\u202Egnp.exe')],
 ];
+/**
+ * For fields nested two or more levels down, the values that differ by kind rather than by size
+ * (the long strings and extreme numbers are sent to the fields above them and to every leaf of
+ * the first level): keeps the suite to a few minutes on a shared 2-core machine.
+ */
+const CORE = new Set(['NUL', 'lone high surrogate', 'lone low surrogate', '200 000 characters', 'deep array', '__proto__ key', '1e308', '5e-324', '-1', 'year 0000', 'true', 'null', 'empty object', 'SQL-like']);
 /** For form fields and CSV text, which carry text only. */
 const HOSTILE_TEXT = HOSTILE.filter(([, json]) => json.startsWith('"')).map(([label, json]) => [label, JSON.parse(json) as string] as const);
 
@@ -339,6 +345,7 @@ describe('hostile input on every write route', () => {
 
   const ordered = Object.entries(ROUTES).sort(([, a], [, b]) => Number(Boolean(a.last)) - Number(Boolean(b.last)));
 
+  // A test that timed out would go on sending while the next one measures: generous time each.
   it.each(ordered)('%s: each field × each hostile value, never a 5xx, and a refusal changes nothing', async (key, route) => {
     const kind = route.kind ?? 'json';
     if (kind === 'json') {
@@ -349,13 +356,14 @@ describe('hostile input on every write route', () => {
           send(key, route, `${where} = ${label}`, (req) => req.set('Content-Type', 'application/json').send(withValue(route.body?.(ctx) ?? base, at, json)), check, check);
         // All values for this field, then one comparison of every table; only when some value was
         // accepted (and so changed things) is each refusal compared on its own, sent again.
+        const values = at.length >= 2 ? HOSTILE.filter(([label]) => CORE.has(label)) : HOSTILE;
         const before = await digest();
         const statuses = [];
-        for (const [label, json] of HOSTILE) statuses.push(await one(label, json, false));
+        for (const [label, json] of values) statuses.push(await one(label, json, false));
         if (statuses.every((status) => status >= 400)) {
           if ((await digest()) !== before) tally.changedOnRefusal.push(`${key} — ${where}: all refused, yet the data changed`);
         } else {
-          for (const [i, [label, json]] of HOSTILE.entries()) if (statuses[i]! >= 400) await one(label, json, true);
+          for (const [i, [label, json]] of values.entries()) if (statuses[i]! >= 400) await one(label, json, true);
         }
       }
       // Hostile text in the query string too.
@@ -383,7 +391,7 @@ describe('hostile input on every write route', () => {
     }
     expect(tally.fiveHundreds.filter((f) => f.startsWith(key))).toEqual([]);
     expect(tally.changedOnRefusal.filter((f) => f.startsWith(key))).toEqual([]);
-  });
+  }, 600_000);
 
   it('random JSON in random fields of every body route (fast-check): never a 5xx', async () => {
     const jsonRoutes = ordered.filter(([, r]) => (r.kind ?? 'json') === 'json' && r.body && !r.last);
@@ -398,7 +406,7 @@ describe('hostile input on every write route', () => {
       }),
       { numRuns: 300, seed: 20_251_202 },
     );
-  });
+  }, 600_000);
 
   it('reports the count and no 5xx at all', () => {
     expect(tally.cases).toBeGreaterThan(3000);
