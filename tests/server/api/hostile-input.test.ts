@@ -1,6 +1,6 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import fc from 'fast-check';
+import { assert as checkProperty, asyncProperty, jsonValue, nat } from 'fast-check';
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { Application, Draft, DraftFile, Invitation, Milestone, OutboxMessage, Pattern, PatternSize, Photo, Trial, type User } from '../../../db/models';
@@ -395,8 +395,8 @@ describe('hostile input on every write route', () => {
 
   it('random JSON in random fields of every body route (fast-check): never a 5xx', async () => {
     const jsonRoutes = ordered.filter(([, r]) => (r.kind ?? 'json') === 'json' && r.body && !r.last);
-    await fc.assert(
-      fc.asyncProperty(fc.nat({ max: jsonRoutes.length - 1 }), fc.nat(), fc.jsonValue({ maxDepth: 4 }), async (r, f, value) => {
+    await checkProperty(
+      asyncProperty(nat({ max: jsonRoutes.length - 1 }), nat(), jsonValue({ maxDepth: 4 }), async (r, f, value) => {
         const [key, route] = jsonRoutes[r]!;
         const base = route.body!(ctx);
         const paths = fieldPaths(base);
