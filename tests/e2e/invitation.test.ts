@@ -87,6 +87,12 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await phone.goto('/members');
     await phone.getByText('Could not load this: A grader of this studio may not see the member list.').first().waitFor();
 
+    // A spent or mistyped confirmation link says so and offers the way forward.
+    await phone.goto(`/verify-email?token=${'x'.repeat(43)}`);
+    await phone.getByText('This link has expired or was used already. Create the account again to get a new one.').waitFor();
+    await phone.getByRole('link', { name: 'Create the account again' }).waitFor();
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'verify-email-spent-phone.png') });
+
     // Back with the designer: the grader is now a member.
     await page.reload();
     await page.getByLabel('Gale Grader, Grader').waitFor();
