@@ -7,7 +7,8 @@ import request from 'supertest';
 import { OutboxMessage } from '../../../db/models';
 import { SESSION_COOKIE } from '../../../server/auth/session-token';
 import { createUser, TEST_PASSWORD } from '../../support/factories';
-import { createTrialWorld, startMailHarness, type MailHarness } from './mail-support';
+import { startJobQueue } from '../../../server/jobs/queue';
+import { createTrialWorld, ownMailDatabase, startMailHarness, type MailHarness } from './mail-support';
 
 const run = promisify(execFile);
 const ROOT = path.resolve(__dirname, '../../..');
@@ -155,5 +156,24 @@ describe('two API processes on one database behind a load balancer', () => {
     expect((await direct(a!).get('/api/health')).status).toBeLessThan(600);
     expect(a!.child.exitCode).toBeNull();
     expect(b!.child.exitCode).toBeNull();
+  });
+});
+
+describe('instances starting together', () => {
+  it('job queues of several instances start at once on fresh databases without a deadlock', async () => {
+    // The race is one of timing: a few fresh databases, four queues starting on each at once.
+    for (let round = 0; round < 3; round += 1) {
+      const db = await ownMailDatabase();
+      const queues: Awaited<ReturnType<typeof startJobQueue>>[] = [];
+      try {
+        const deps = { config: {} as never, mailer: {} as never };
+        const started = await Promise.allSettled(Array.from({ length: 4 }, () => startJobQueue(deps, { databaseUrl: db.url, log: false })));
+        for (const s of started) if (s.status === 'fulfilled') queues.push(s.value);
+        expect(started.map((s) => (s.status === 'rejected' ? String(s.reason) : 'started'))).toEqual(['started', 'started', 'started', 'started']);
+      } finally {
+        await Promise.all(queues.map((q) => q.stop()));
+        await db.drop();
+      }
+    }
   });
 });
