@@ -44,9 +44,19 @@ export async function signIn(body: { email: string; password: string }): Promise
   return refreshSession();
 }
 
-export async function signUp(body: { name: string; email: string; password: string }): Promise<Session> {
-  await api('/api/auth/sign-up', { method: 'POST', body });
-  return refreshSession();
+/**
+ * Asks for an account: the server e-mails a link that confirms the address and makes the account.
+ * Returns what to tell the person (the same whether or not the address has an account).
+ */
+export async function signUp(body: { name: string; email: string; password: string; next?: string }): Promise<string> {
+  const res = await api<{ message: string }>('/api/auth/sign-up', { method: 'POST', body });
+  return res.message;
+}
+
+/** The link from the confirmation e-mail: makes the account and signs in; `next` is where to go. */
+export async function confirmAddress(token: string): Promise<{ session: Session; next: string | null }> {
+  const res = await api<Session & { next: string | null }>('/api/auth/verify-email', { method: 'POST', body: { token } });
+  return { session: await refreshSession(), next: res.next };
 }
 
 export async function requestPasswordReset(body: { email: string }): Promise<string> {

@@ -5,6 +5,7 @@ set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/env.sh"
 cd "$ROOT"
 bash scripts/setup.sh --services
+export NODE_ENV=development
 node --import tsx db/cli.ts migrate
 node --import tsx db/cli.ts seed
 node --import tsx db/cli.ts accounts

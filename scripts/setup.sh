@@ -22,9 +22,11 @@ bash scripts/pg.sh start
 bash scripts/fakes.sh start
 [[ "${1:-}" == "--services" ]] && exit 0
 
-# 3. Schema and demo data (both idempotent).
-node --import tsx db/cli.ts migrate
-node --import tsx db/cli.ts seed
+# 3. Schema and demo data (both idempotent). The seed reads the local fakes' settings, which the
+#    server configuration allows only with NODE_ENV=development (not set for the whole script:
+#    expo export reads NODE_ENV too).
+NODE_ENV=development node --import tsx db/cli.ts migrate
+NODE_ENV=development node --import tsx db/cli.ts seed
 
 # 4. The web app, rebuilt only when its sources changed.
 sources="$(find app components hooks constants assets server/domain -type f 2>/dev/null | LC_ALL=C sort;

@@ -20,4 +20,5 @@ cat >&2 <<MSG
 
 MSG
 echo $$ >"$PIDFILE"
-exec node --import tsx server/index.ts
+# The local set-up: fakes, the development secret and plain-http cookies are allowed by name.
+NODE_ENV=development exec node --import tsx server/index.ts

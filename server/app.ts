@@ -3,7 +3,6 @@ import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
-import morgan from 'morgan';
 import type { Sequelize } from 'sequelize';
 import { authRouter } from './auth/auth.routes';
 import { authenticate } from './auth/authenticate';
@@ -11,6 +10,9 @@ import type { Config } from './config';
 import { healthRouter } from './health/health.routes';
 import type { Mailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { createLimiters, type Limiters } from './middleware/rate-limit';
+import { storableInput } from './middleware/storable-input';
+import { createLogger, requestLogger, type Logger } from './logger';
 import { callsRouter, myTrialsRouter } from './calls/calls.routes';
 import { draftLinksRouter } from './drafts/drafts.routes';
 import { photosRouter } from './photos/photos.routes';
@@ -26,11 +28,21 @@ export type AppDeps = {
   sequelize: Sequelize;
   storage: Storage;
   mailer: Mailer;
+  /** Where the request log and failures go (JSON lines on stdout unless given). */
+  logger?: Logger;
 };
+/** What the routers get: the app's dependencies, its logger and the rate limits built from them. */
+export type RouteDeps = AppDeps & { limiters: Limiters; logger: Logger };
 
-function apiRouter(deps: AppDeps): express.Router {
+function apiRouter(deps: RouteDeps): express.Router {
   const api = express.Router();
+  // Answers carry people's own data (measurements, reports, sessions): no cache may keep them.
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '1mb' }));
+  api.use(storableInput);
   api.use(cookieParser());
   api.use(authenticate(deps.config.auth));
   api.use('/health', healthRouter(deps));
@@ -70,7 +82,8 @@ function webApp(distDir: string): express.Router {
 export function createApp(deps: AppDeps): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Which proxies to believe about the client's address (TRUST_PROXY): rate limits key on it.
+  app.set('trust proxy', deps.config.trustProxy);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -87,9 +100,10 @@ export function createApp(deps: AppDeps): express.Express {
       },
     }),
   );
-  if (deps.config.logRequests) app.use(morgan(deps.config.env === 'production' ? 'combined' : 'dev'));
-  app.use('/api', apiRouter(deps));
+  const logger = deps.logger ?? createLogger();
+  if (deps.config.logRequests) app.use(requestLogger(logger));
+  app.use('/api', apiRouter({ ...deps, logger, limiters: createLimiters(deps.sequelize, deps.config.limits) }));
   app.use(webApp(path.resolve(deps.config.webDist)));
-  app.use(errorHandler);
+  app.use(errorHandler(logger));
   return app;
 }

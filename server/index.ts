@@ -2,6 +2,7 @@ import type { Server } from 'node:http';
 import { createSequelize } from '../db/sequelize';
 import { migrateUp } from '../db/migrator';
 import { createApp } from './app';
+import { settleBackgroundWork } from './background';
 import { ConfigError, loadConfig } from './config';
 import { startJobQueue } from './jobs/queue';
 import { createMailer } from './mail/mailer';
@@ -17,7 +18,7 @@ async function main() {
   const mailer = createMailer(config.smtp);
   const app = createApp({ config, sequelize, storage, mailer });
   // Reminders, digests and mail retries run from the persistent queue in PostgreSQL.
-  const jobs = await startJobQueue({ config, mailer }, { databaseUrl: config.databaseUrl });
+  const jobs = await startJobQueue({ config, mailer, storage, sequelize }, { databaseUrl: config.databaseUrl });
 
   const server: Server = app.listen(config.port, config.host, () => {
     console.log(`Basted listening on http://${config.host}:${config.port}`);
@@ -31,8 +32,8 @@ async function main() {
     // Let requests in flight finish, then release the pool; give up after 10 s.
     setTimeout(() => process.exit(1), 10_000).unref();
     server.close(() => {
-      jobs
-        .stop()
+      settleBackgroundWork()
+        .then(() => jobs.stop())
         .catch((error: unknown) => console.error('[jobs] stop:', error))
         .finally(() => {
           storage.close();

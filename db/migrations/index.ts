@@ -10,6 +10,9 @@ import * as reports from './0007-reports';
 import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
 import * as reportSaves from './0011-report-saves';
+import * as sessions from './0015-sessions-and-verified-addresses';
+import * as rateLimits from './0016-rate-limits';
+import * as objectDeletions from './0017-object-deletions';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
@@ -26,6 +29,9 @@ export const migrations: Migration[] = [
   { name: '0008-findings', ...findings },
   { name: '0009-mail-outbox', ...mailOutbox },
   { name: '0011-report-saves', ...reportSaves },
+  { name: '0015-sessions-and-verified-addresses', ...sessions },
+  { name: '0016-rate-limits', ...rateLimits },
+  { name: '0017-object-deletions', ...objectDeletions },
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
 ];

@@ -11,6 +11,7 @@ import { OutboxMessage } from './outbox-message';
 import { PasswordReset } from './password-reset';
 import { Photo } from './photo';
 import { Report } from './report';
+import { RevokedSession, SignUpRequest } from './session';
 import { Pattern } from './pattern';
 import { PatternSize } from './pattern-size';
 import { PatternVariant } from './pattern-variant';
@@ -21,6 +22,7 @@ import { User } from './user';
 
 export { FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping };
 export { OutboxMessage };
+export { RevokedSession, SignUpRequest };
 export { Report, Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
@@ -49,6 +51,8 @@ export function initModels(sequelize: Sequelize): void {
   FindingNote.initModel(sequelize);
   OutboxMessage.initModel(sequelize);
   OtherAlterationMapping.initModel(sequelize);
+  RevokedSession.initModel(sequelize);
+  SignUpRequest.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -57,6 +61,7 @@ export function initModels(sequelize: Sequelize): void {
   User.hasOne(TesterProfile, { as: 'testerProfile', foreignKey: 'userId' });
   TesterProfile.belongsTo(User, { as: 'user', foreignKey: 'userId' });
   User.hasMany(PasswordReset, { foreignKey: 'userId' });
+  RevokedSession.belongsTo(User, { as: 'user', foreignKey: 'userId' });
   PasswordReset.belongsTo(User, { as: 'user', foreignKey: 'userId' });
   Studio.hasMany(Invitation, { as: 'invitations', foreignKey: 'studioId' });
   Invitation.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });

@@ -18,6 +18,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare fabricUnit: CreationOptional<'yd' | 'm'>;
   declare timeZone: CreationOptional<string>;
   declare sessionVersion: CreationOptional<number>;
+  declare emailVerifiedAt: CreationOptional<Date | null>;
   declare currentStudioId: CreationOptional<string | null>;
   declare mailReminders: CreationOptional<boolean>;
   declare mailTrialNews: CreationOptional<boolean>;
@@ -37,6 +38,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         fabricUnit: { type: DataTypes.STRING(2), allowNull: false, defaultValue: 'yd' },
         timeZone: { type: DataTypes.STRING(64), allowNull: false, defaultValue: 'UTC' },
         sessionVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        emailVerifiedAt: { type: DataTypes.DATE, allowNull: true },
         currentStudioId: { type: DataTypes.UUID, allowNull: true },
         mailReminders: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         mailTrialNews: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },

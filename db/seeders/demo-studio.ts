@@ -162,7 +162,7 @@ async function seedDemoTrial(studio: Studio, passwordHash: string, transaction: 
     const measurementsMm = { hip: hipIn * IN, waist: (hipIn - 9.5 - (i % 3) * 0.5) * IN, height: heightMm, inseam: (heightMm * 0.45) };
     const [user] = await User.findOrCreate({
       where: { email: `applicant${n}@demo.basted.test` },
-      defaults: { email: `applicant${n}@demo.basted.test`, name: `Demo Applicant ${n}`, passwordHash, timeZone: APPLICANT_ZONES[i % APPLICANT_ZONES.length] },
+      defaults: { email: `applicant${n}@demo.basted.test`, name: `Demo Applicant ${n}`, passwordHash, emailVerifiedAt: new Date(), timeZone: APPLICANT_ZONES[i % APPLICANT_ZONES.length] },
       transaction,
     });
     await TesterProfile.findOrCreate({ where: { userId: user.id }, defaults: { userId: user.id, measurementsMm, experience: ['beginner', 'confident', 'advanced'][i % 3] }, transaction });
@@ -219,7 +219,7 @@ export async function seedDemoStudio(sequelize: Sequelize, bcryptCost = 10): Pro
     for (const account of DEMO_ACCOUNTS) {
       const [user] = await User.findOrCreate({
         where: { email: account.email },
-        defaults: { email: account.email, name: account.name, passwordHash },
+        defaults: { email: account.email, name: account.name, passwordHash, emailVerifiedAt: new Date() },
         transaction,
       });
       await Membership.findOrCreate({

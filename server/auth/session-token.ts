@@ -1,24 +1,46 @@
+import { randomUUID } from 'node:crypto';
 import jwt from 'jsonwebtoken';
+import { z } from 'zod';
 import type { Config } from '../config';
 
 export const SESSION_COOKIE = 'basted_session';
 
-export type SessionClaims = { sub: string; ver: number; iat: number; exp: number };
+/**
+ * What a session token says: the user (`sub`), the session (`sid`, what signing out revokes), the
+ * user's session version when it was issued (a password reset moves it on), and its times.
+ */
+export type SessionClaims = { sub: string; sid: string; ver: number; iat: number; exp: number };
 
-export function issueSessionToken(user: { id: string; sessionVersion: number }, auth: Config['auth']): string {
-  return jwt.sign({ ver: user.sessionVersion }, auth.jwtSecret, {
+const claimsSchema = z.object({
+  sub: z.uuid(),
+  sid: z.uuid(),
+  ver: z.number().int().min(0),
+  iat: z.number().int(),
+  // Required: a token without an end would be a session that never ends.
+  exp: z.number().int(),
+});
+
+export function issueSessionToken(user: { id: string; sessionVersion: number }, auth: Config['auth'], sessionId: string = randomUUID()): string {
+  return jwt.sign({ ver: user.sessionVersion, sid: sessionId }, auth.jwtSecret, {
     subject: user.id,
     expiresIn: `${auth.sessionDays}d`,
     algorithm: 'HS256',
   });
 }
 
-/** The claims of a valid token, or null for a missing, expired, forged or malformed one. */
+/**
+ * The claims of a valid token, or null for a missing, expired, forged or malformed one — and for
+ * a token that lacks an expiry, names no session, names its user by anything but an id, or claims
+ * to last longer than sessions do.
+ */
 export function readSessionToken(token: string, auth: Config['auth']): SessionClaims | null {
   try {
-    const claims = jwt.verify(token, auth.jwtSecret, { algorithms: ['HS256'] });
-    if (typeof claims !== 'object' || typeof claims.sub !== 'string' || typeof claims.ver !== 'number') return null;
-    return claims as SessionClaims;
+    const verified = jwt.verify(token, auth.jwtSecret, { algorithms: ['HS256'] });
+    const claims = claimsSchema.safeParse(verified);
+    if (!claims.success) return null;
+    // A minute of leeway for clocks; anything longer was not issued by this configuration.
+    if (claims.data.exp - claims.data.iat > auth.sessionDays * 86_400 + 60) return null;
+    return claims.data;
   } catch {
     return null;
   }

@@ -1,15 +1,10 @@
 import { Router } from 'express';
-import { Enrollment, Trial } from '../../db/models';
-import { removeEnrollmentPhotos } from '../photos/photos.service';
 import type { AppDeps } from '../app';
 import { requireUser } from '../auth/guards';
 import { applySchema } from '../domain/schemas/trials';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
-import { cancelObsoleteReminders } from '../outbox/outbox.service';
-import { sendDecisionMail } from '../trials/trial-mail';
-import { loadTrial, withdraw } from '../trials/trials.service';
-import { adviceForCall, apply, callBySlug, myTrials } from './calls.service';
+import { adviceForCall, apply, callBySlug, myTrials, withdrawApplication } from './calls.service';
 
 /** Mounted at /api/calls: the public call page and applying to it. */
 export function callsRouter(deps: AppDeps): Router {
@@ -34,16 +29,7 @@ export function myTrialsRouter(deps: AppDeps): Router {
     res.json(await myTrials(res.locals.user!));
   });
   router.post('/applications/:applicationId/withdraw', requireUser, uuidParam('applicationId', 'application'), async (req, res) => {
-    const { application, offered } = await withdraw(res.locals.user!, String(req.params.applicationId));
-    const enrollment = await Enrollment.findOne({ where: { applicationId: application.id } });
-    if (enrollment) await removeEnrollmentPhotos(enrollment.id, deps.storage);
-    if (enrollment) await cancelObsoleteReminders({ enrollmentId: enrollment.id });
-    // The freed seat went to the best waitlisted applicant of that size: tell them.
-    if (offered) {
-      const studioId = (await Trial.findByPk(application.trialId))!.studioId;
-      const trial = await loadTrial(studioId, application.trialId);
-      await sendDecisionMail(trial, { selected: [offered], waitlisted: [], declined: [] }, deps);
-    }
+    const { application, offered } = await withdrawApplication(res.locals.user!, String(req.params.applicationId), deps);
     res.json({ id: application.id, status: application.status, seatOffered: offered !== null });
   });
   return router;

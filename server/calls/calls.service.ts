@@ -1,4 +1,4 @@
-import { UniqueConstraintError } from 'sequelize';
+import { UniqueConstraintError, type Sequelize } from 'sequelize';
 import type { z } from 'zod';
 import { Application, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Report, Studio, TesterProfile, Trial, type User } from '../../db/models';
 import type { MeasurementKey } from '../domain/measurements';
@@ -8,9 +8,12 @@ import { conflict, notFound, badRequest } from '../errors';
 import type { Config } from '../config';
 import type { Mailer } from '../mail/mailer';
 import { applicationReceivedMail } from '../mail/templates';
-import { optOutFor, send as sendMail } from '../outbox/outbox.service';
+import { cancelObsoleteReminders, optOutFor, send as sendMail } from '../outbox/outbox.service';
 import { adviceFor } from '../patterns/size-advice.service';
-import { formatDue } from '../trials/trial-mail';
+import { purgeSoon } from '../storage/object-deletions';
+import type { Storage } from '../storage/storage';
+import { formatDue, sendDecisionMail } from '../trials/trial-mail';
+import { loadTrial, withdraw } from '../trials/trials.service';
 import { serializeUser } from '../serializers';
 
 /** A call is public while the trial is open or running; drafts and closed trials are not found. */
@@ -169,4 +172,23 @@ export async function myTrials(user: User) {
       };
     }),
   );
+}
+
+/**
+ * A tester withdraws: one transaction marks the application withdrawn, drops the enrolment,
+ * removes their photos' rows (recording the stored objects for removal) and hands a selected
+ * tester's seat to the best waitlisted applicant. Only then, outside it, the reminders still
+ * queued are cancelled, the promoted applicant is told, and the stored objects are removed — a
+ * file store that is down delays the removal (a job finishes it), never the withdrawal.
+ */
+export async function withdrawApplication(user: User, applicationId: string, deps: { config: Config; mailer: Mailer; storage: Storage; sequelize: Sequelize }) {
+  const result = await withdraw(user, applicationId);
+  const enrollment = await Enrollment.findOne({ where: { applicationId: result.application.id } });
+  if (enrollment) await cancelObsoleteReminders({ enrollmentId: enrollment.id });
+  if (result.offered) {
+    const studioId = (await Trial.findByPk(result.application.trialId))!.studioId;
+    await sendDecisionMail(await loadTrial(studioId, result.application.trialId), { selected: [result.offered], waitlisted: [], declined: [] }, deps);
+  }
+  await purgeSoon(deps.sequelize, deps.storage);
+  return result;
 }

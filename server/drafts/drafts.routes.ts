@@ -6,11 +6,14 @@ import { requireStudio, requireUser } from '../auth/guards';
 import { DRAFT_FILE_KINDS, type DraftFileKind } from '../domain/drafts';
 import { DRAFT_MAX_BYTES } from '../files/content-check';
 import { uuidParam } from '../middleware/uuid-param';
+import { validate } from '../middleware/validate';
 import type { Draft } from '../../db/models';
 import { createDraft, downloadLink, draftsForTrial, listDrafts } from './drafts.service';
 
 // In memory: a draft is checked by content before anything is stored, and files are capped.
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: DRAFT_MAX_BYTES, files: DRAFT_FILE_KINDS.length } });
+// Browsers send file names as UTF-8 without saying so; busboy's default reads them as latin1
+// and stores "café" as "cafÃ©".
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: DRAFT_MAX_BYTES, files: DRAFT_FILE_KINDS.length } });
 const noteSchema = z.object({ changeNote: z.string({ error: 'Say what changed in this draft' }).trim().min(3, 'Say what changed in this draft').max(5000) });
 
 function serializeDraft(draft: Draft, withDownloads: boolean) {
@@ -46,7 +49,7 @@ export function patternDraftsRouter(deps: AppDeps): Router {
   const pattern = uuidParam('patternId', 'pattern');
 
   router.get('/', requireStudio('patterns.read', 'see drafts'), pattern, async (req, res) => {
-    res.json((await listDrafts(String(req.params.patternId))).map((d) => serializeDraft(d, true)));
+    res.json((await listDrafts(res.locals.membership!.studioId, String(req.params.patternId))).map((d) => serializeDraft(d, true)));
   });
 
   router.post(
@@ -54,8 +57,9 @@ export function patternDraftsRouter(deps: AppDeps): Router {
     requireStudio('patterns.write', 'upload drafts'),
     pattern,
     upload.fields(DRAFT_FILE_KINDS.map((name) => ({ name, maxCount: 1 }))),
+    validate({ body: noteSchema }),
     async (req, res) => {
-      const { changeNote } = noteSchema.parse(req.body ?? {});
+      const { changeNote } = res.locals.body as z.output<typeof noteSchema>;
       const files = Object.entries((req.files ?? {}) as Record<string, Express.Multer.File[]>).flatMap(([kind, list]) =>
         list.map((f) => ({ kind: kind as DraftFileKind, originalName: f.originalname, buffer: f.buffer })),
       );

@@ -6,6 +6,7 @@ import type { DraftFileKind } from '../domain/drafts';
 import { can } from '../domain/policy';
 import { badRequest, notFound, notYours } from '../errors';
 import { checkDraftFile } from '../files/content-check';
+import { unstorableParts } from '../middleware/storable-input';
 import type { Mailer } from '../mail/mailer';
 import { newDraftMail } from '../mail/templates';
 import { optOutFor, send as sendMail } from '../outbox/outbox.service';
@@ -25,6 +26,9 @@ export async function createDraft(
   const pattern = await Pattern.findOne({ where: { id: args.patternId, studioId: args.studioId } });
   if (!pattern) throw notFound('pattern');
   if (args.files.length === 0) throw badRequest('Add at least one PDF file to the draft.', { files: 'no file was sent' });
+  // The name is kept and shown: it must be text the database can hold.
+  const badNames = Object.fromEntries(args.files.flatMap((f) => Object.values(unstorableParts(f.originalName)).map((problem) => [f.kind, `the file name ${problem}`])));
+  if (Object.keys(badNames).length) throw badRequest('Rename the file and send it again.', badNames);
   for (const file of args.files) await checkDraftFile(file.buffer, file.originalName);
 
   const stored: string[] = [];
@@ -93,9 +97,12 @@ export async function loadDraft(draftId: string) {
   return (await Draft.findByPk(draftId, { include: [{ model: DraftFile, as: 'files' }], order: [[{ model: DraftFile, as: 'files' }, 'kind', 'ASC']] }))!;
 }
 
-export async function listDrafts(patternId: string) {
+/** The draft history of one of the studio's own patterns; another studio's pattern is not found. */
+export async function listDrafts(studioId: string, patternId: string) {
+  const pattern = await Pattern.findOne({ where: { id: patternId, studioId } });
+  if (!pattern) throw notFound('pattern');
   return Draft.findAll({
-    where: { patternId },
+    where: { patternId: pattern.id },
     include: [{ model: DraftFile, as: 'files', include: [{ model: DraftDownload, as: 'downloads', include: [{ model: User, as: 'user' }] }] }],
     order: [['version', 'DESC']],
   });

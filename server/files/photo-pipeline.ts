@@ -1,14 +1,27 @@
+import pLimit from 'p-limit';
 import sharp, { type Sharp } from 'sharp';
-import { AppError } from '../errors';
+import { AppError, unavailable } from '../errors';
 import { displayName } from './content-check';
 
 /**
- * The most pixels a photo may declare. Phone cameras top out around 108–200 megapixels (from
- * memory); 120 MP admits the 108 MP sensors, while an image declaring more is refused before any
- * pixel is decoded — a few kilobytes of PNG can declare 50 000 × 50 000 pixels (a decompression
- * bomb) that would take gigabytes to decode. sharp's own default (0x3FFF², about 268 MP) is looser.
+ * The most pixels a photo may declare: 50 megapixels. Phones take 12 MP photos by default and
+ * offer 48 or 50 MP as their high-resolution mode (from memory; a few offer 108 or 200 MP modes,
+ * whose photos are refused with a message asking for the normal setting). A fit photo is stored
+ * at most 2400 px on its longest side (about 4 MP), so pixels beyond that are thrown away anyway,
+ * while decoding them is what costs: a PNG of a few hundred kilobytes can declare 120 MP, and
+ * measured here one 48 MP PNG took about 65 MB and 0.3–0.8 s on one libvips thread (a 120 MP one
+ * 100 MB and 1.2 s). An image declaring more is refused before any pixel is decoded; sharp's own
+ * default (0x3FFF², about 268 MP) is looser.
  */
-export const PHOTO_MAX_PIXELS = 120_000_000;
+export const PHOTO_MAX_PIXELS = 50_000_000;
+/**
+ * Photos processed at once, each on one libvips thread (sharp.concurrency(1) below): one per core
+ * of the 2-core machines Basted runs on, so a burst of uploads queues instead of starving the
+ * event loop and the database pool of CPU and memory.
+ */
+export const PHOTO_PROCESSING_CONCURRENCY = 2;
+/** Uploads waiting for a turn beyond which a new one is turned away with 503 (try again shortly). */
+export const PHOTO_QUEUE_MAX = 16;
 /** The stored photo's longest side: enough to judge fit and drag lines on a large screen. */
 export const PHOTO_FULL_MAX_SIDE = 2400;
 /** The thumbnail's longest side: a photo-wall tile at twice the density of a 240 px column. */
@@ -20,6 +33,25 @@ export type EncodedImage = { buffer: Buffer; width: number; height: number; mime
 export type ProcessedPhoto = { full: EncodedImage; thumb: EncodedImage };
 
 const DECODABLE = new Set(['jpeg', 'png', 'webp']);
+
+// One libvips thread per image and no operation cache: memory stays with the images in flight.
+sharp.concurrency(1);
+sharp.cache(false);
+const turns = pLimit(PHOTO_PROCESSING_CONCURRENCY);
+
+/** How many photos are being processed and how many wait (for tests and health checks). */
+export const photoQueue = () => ({ active: turns.activeCount, waiting: turns.pendingCount });
+
+/**
+ * processPhoto, at most PHOTO_PROCESSING_CONCURRENCY at a time; when PHOTO_QUEUE_MAX uploads
+ * already wait, refused at once with 503 rather than queued without end.
+ */
+export function processPhotoBounded(input: Buffer, fileName = ''): Promise<ProcessedPhoto> {
+  if (turns.pendingCount >= PHOTO_QUEUE_MAX) {
+    return Promise.reject(unavailable('Many photos are being processed just now. Please try again in a minute.'));
+  }
+  return turns(() => processPhoto(input, fileName));
+}
 
 /**
  * Re-encodes an uploaded photo (already checked as JPEG, PNG or WebP by content-check.ts) into a
@@ -39,7 +71,7 @@ export async function processPhoto(input: Buffer, fileName = ''): Promise<Proces
     throw new AppError(
       413,
       'image_too_large',
-      `${name} is ${meta.width} × ${meta.height} pixels; a photo may have at most ${PHOTO_MAX_PIXELS / 1_000_000} megapixels.`,
+      `${name} is ${meta.width} × ${meta.height} pixels; a photo may have at most ${PHOTO_MAX_PIXELS / 1_000_000} megapixels. Take it at the camera's normal setting, or make it smaller.`,
     );
   }
 

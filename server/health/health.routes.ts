@@ -1,8 +1,8 @@
 import { Router } from 'express';
-import type { AppDeps } from '../app';
+import type { RouteDeps } from '../app';
 import { checkHealth } from './health.service';
 
-export function healthRouter(deps: AppDeps): Router {
+export function healthRouter(deps: RouteDeps): Router {
   const router = Router();
   // 503 when any part is down, so a load balancer takes the instance out of rotation.
   router.get('/', async (_req, res) => {

@@ -1,21 +1,24 @@
 import { Router } from 'express';
-import type { AppDeps } from '../app';
+import type { RouteDeps } from '../app';
 import { requireStudio, requireUser } from '../auth/guards';
 import { inviteSchema } from '../domain/schemas/studios';
+import { rateLimit } from '../middleware/rate-limit';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { serializeInvitation, serializeStudio } from '../serializers';
 import { acceptInvitation, createInvitation, listInvitations, previewInvitation, revokeInvitation } from './invitations.service';
 
 /** Mounted at /api/studios/:studioId/invitations: the studio's side. */
-export function invitationsRouter(deps: AppDeps): Router {
+export function invitationsRouter(deps: RouteDeps): Router {
   const router = Router({ mergeParams: true });
+  // A studio's invitations per day, counted only when one is sent (a refused one is given back).
+  const daily = rateLimit(deps.limiters.invitations, { key: (_req, res) => res.locals.membership!.studioId, who: 'this studio today', refundRefused: true });
 
   router.get('/', requireStudio('invitations.list', 'see invitations'), async (req, res) => {
     res.json((await listInvitations(res.locals.membership!.studioId)).map(serializeInvitation));
   });
 
-  router.post('/', requireStudio('invitations.create', 'invite people'), validate({ body: inviteSchema }), async (req, res) => {
+  router.post('/', requireStudio('invitations.create', 'invite people'), validate({ body: inviteSchema }), daily, async (req, res) => {
     const invitation = await createInvitation(
       {
         studioId: res.locals.membership!.studioId,

@@ -28,6 +28,8 @@ export async function createInvitation(
   if (inviterRole !== 'owner' && input.role === 'coordinator') {
     throw forbidden('Only the owner can invite a coordinator.');
   }
+  // Basted sends the invitation in the studio's name: only from an address shown to be its owner's.
+  if (!inviter.emailVerifiedAt) throw forbidden('Confirm your own e-mail address before inviting people.');
   const email = input.email.toLowerCase();
   const studio = (await Studio.findByPk(studioId))!;
 
@@ -124,7 +126,11 @@ export async function acceptInvitation(token: string, user: User) {
           : 'This invitation was withdrawn by the studio.',
     );
   }
-  // The link only works for the address it was sent to, so a forwarded link gives no access.
+  // The link only works for the address it was sent to, and only for an account whose owner has
+  // shown they read that address, so a forwarded link gives no access.
+  if (!user.emailVerifiedAt) {
+    throw forbidden('Confirm your e-mail address first: open the link in the confirmation e-mail, then accept the invitation.');
+  }
   if (invitation.email.toLowerCase() !== user.email.toLowerCase()) {
     throw forbidden(`This invitation was sent to ${maskEmail(invitation.email)}. Sign in with that address to accept it.`);
   }

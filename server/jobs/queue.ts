@@ -1,7 +1,14 @@
+import { Client } from 'pg';
 import PgBoss from 'pg-boss';
+import type { Sequelize } from 'sequelize';
 import type { OutboxDeps } from '../outbox/outbox.service';
+import { purgeDeletions } from '../storage/object-deletions';
+import type { Storage } from '../storage/storage';
 import { flushOutbox } from '../outbox/outbox.service';
 import { runMailTick } from './tick';
+
+// Any fixed number, the same for every Basted process (the migrations use another).
+const JOB_SETUP_LOCK = 4_227_302;
 
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
 export const MAIL_TICK_QUEUE = 'mail-tick';
@@ -29,15 +36,26 @@ export type JobQueueOptions = {
  * with several instances each cron slot runs once (pg-boss de-duplicates schedules, and the
  * outbox claims rows under SKIP LOCKED, so even two runs at once send nothing twice).
  */
-export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions): Promise<JobQueue> {
+export async function startJobQueue(deps: OutboxDeps & { storage?: Storage; sequelize?: Sequelize }, options: JobQueueOptions): Promise<JobQueue> {
   const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 3, application_name: 'basted-jobs' });
   boss.on('error', (error: unknown) => console.error('[jobs]', error));
-  await boss.start();
-  await boss.createQueue(MAIL_TICK_QUEUE, { name: MAIL_TICK_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
-  await boss.createQueue(OUTBOX_FLUSH_QUEUE, { name: OUTBOX_FLUSH_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
-  if (options.schedule !== false) {
-    await boss.schedule(MAIL_TICK_QUEUE, options.tickCron ?? '*/5 * * * *');
-    await boss.schedule(OUTBOX_FLUSH_QUEUE, options.flushCron ?? '* * * * *');
+  // Instances starting together would create the same queues at once, which deadlocks in
+  // PostgreSQL (seen with two servers booting on a fresh database): one at a time, under a lock.
+  const setupLock = new Client({ connectionString: options.databaseUrl, application_name: 'basted-jobs-setup' });
+  await setupLock.connect();
+  try {
+    await setupLock.query('SELECT pg_advisory_lock($1)', [JOB_SETUP_LOCK]);
+    await boss.start();
+    await boss.createQueue(MAIL_TICK_QUEUE, { name: MAIL_TICK_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+    await boss.createQueue(OUTBOX_FLUSH_QUEUE, { name: OUTBOX_FLUSH_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+    if (options.schedule !== false) {
+      await boss.schedule(MAIL_TICK_QUEUE, options.tickCron ?? '*/5 * * * *');
+      await boss.schedule(OUTBOX_FLUSH_QUEUE, options.flushCron ?? '* * * * *');
+    }
+  } finally {
+    // Ending the session releases the lock even if the unlock itself fails.
+    await setupLock.query('SELECT pg_advisory_unlock($1)', [JOB_SETUP_LOCK]).catch(() => undefined);
+    await setupLock.end();
   }
   await boss.work(MAIL_TICK_QUEUE, async () => {
     const result = await runMailTick(deps, new Date());
@@ -45,6 +63,8 @@ export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions):
   });
   await boss.work(OUTBOX_FLUSH_QUEUE, async () => {
     await flushOutbox(deps, new Date());
+    // Stored objects whose rows are gone, left over while the file store was down.
+    if (deps.storage && deps.sequelize) await purgeDeletions(deps.sequelize, deps.storage);
   });
   return {
     boss,

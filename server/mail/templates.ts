@@ -43,6 +43,26 @@ export function passwordResetMail(input: { name: string; link: string; minutes: 
   };
 }
 
+export function confirmAddressMail(input: { name: string; link: string; hours: number }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    `Someone asked to create a Basted account with this e-mail address. If it was you, confirm the address within ${input.hours} hours to finish:`,
+  ];
+  const footer = 'If you did not ask for this, ignore this e-mail: no account is made without the link. The link works once.';
+  return compose('Confirm your e-mail address for Basted', lines, { label: 'Confirm my address', url: input.link }, footer);
+}
+
+/** Sent instead of a confirmation when the address has an account already: the owner learns of it, the asker does not. */
+export function accountExistsMail(input: { name: string; signInLink: string; resetLink: string }): MailContent {
+  const lines = [
+    `Hello ${input.name},`,
+    'Someone asked to create a Basted account with this e-mail address, but it has one already: yours. Nothing was changed.',
+    `If it was you, sign in instead. Forgot the password? Choose a new one here: ${input.resetLink}`,
+  ];
+  const footer = 'If it was not you, you can ignore this e-mail.';
+  return compose('You already have a Basted account', lines, { label: 'Sign in', url: input.signInLink }, footer);
+}
+
 export function invitationMail(input: {
   studioName: string;
   roleLabel: string;
@@ -50,13 +70,16 @@ export function invitationMail(input: {
   link: string;
   days: number;
 }): MailContent {
+  // The studio's name and the inviter's name are typed by the studio, not by Basted: they are quoted
+  // as names, and the e-mail says what Basted itself never asks for.
   const lines = [
-    `${input.inviterName} invites you to join ${input.studioName} on Basted as ${input.roleLabel.toLowerCase()}.`,
+    `${input.inviterName} invites you to join the studio “${input.studioName}” on Basted as ${input.roleLabel.toLowerCase()}.`,
     `Open the invitation within ${input.days} days to accept it. If you have no Basted account yet, you can create one on the way.`,
   ];
-  const footer = 'If you were not expecting this invitation, you can ignore this e-mail.';
+  const footer =
+    'If you were not expecting this invitation, you can ignore this e-mail. The studio and person names above were written by the studio; Basted never asks for your password by e-mail.';
   return {
-    subject: `Invitation to ${input.studioName} on Basted`,
+    subject: `Invitation to the studio “${input.studioName}” on Basted`,
     text: `${lines.join('\n\n')}\n\n${input.link}\n\n${footer}\n`,
     html: layout(lines, { label: 'Open the invitation', url: input.link }, footer),
   };

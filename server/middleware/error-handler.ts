@@ -1,8 +1,18 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { MulterError } from 'multer';
-import { ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
+import {
+  ConnectionError,
+  DatabaseError,
+  ForeignKeyConstraintError,
+  UniqueConstraintError,
+  ValidationError as SequelizeValidationError,
+} from 'sequelize';
 import { ZodError } from 'zod';
 import { AppError } from '../errors';
+import { describeError, redactUrl, type Logger } from '../logger';
+
+/** busboy's messages for a multipart or urlencoded body it cannot parse. */
+const BROKEN_FORM = /^(Malformed part header|Unexpected end of form|Malformed urlencoded form|Multipart: Boundary not found|Unsupported content type)/;
 
 type ErrorBody = { error: { code: string; message: string; fields?: Record<string, string> } };
 
@@ -42,9 +52,23 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
     }
     return { status: 400, body: { error: { code: 'invalid_upload', message: `The upload could not be taken: ${err.message}.`, fields: { [field]: err.message } } } };
   }
+  // busboy (under multer) refuses a multipart body it cannot read with a plain Error.
+  if (err instanceof Error && BROKEN_FORM.test(err.message)) {
+    return { status: 400, body: { error: { code: 'invalid_upload', message: 'The form could not be read (a part of it is malformed). Please send it again.' } } };
+  }
   if (err instanceof ForeignKeyConstraintError) {
     // A last line of defence: services check references first and say which ones.
     return { status: 409, body: { error: { code: 'in_use', message: 'This is still referred to elsewhere, so it cannot be changed this way.' } } };
+  }
+  // The database cannot be reached, is shutting down or refuses connections for now: the request
+  // may simply be tried again, which is what 503 says (PostgreSQL error classes 08 and 57P).
+  if (err instanceof ConnectionError || (err instanceof DatabaseError && /^(08|57P|53300)/.test(pgCode(err)))) {
+    return { status: 503, body: { error: { code: 'unavailable', message: 'Basted cannot reach its database just now. Please try again in a minute.' } } };
+  }
+  // PostgreSQL class 22 (data exception): a value the column cannot hold. The schemas refuse these
+  // first, naming the field; this is the last line of defence, and nothing was saved.
+  if (err instanceof DatabaseError && pgCode(err).startsWith('22')) {
+    return { status: 400, body: { error: { code: 'invalid_input', message: 'A value in the request cannot be stored (it is out of range or holds characters that cannot be kept). Nothing was saved.' } } };
   }
   if (err instanceof SequelizeValidationError) {
     const fields: Record<string, string> = {};
@@ -66,11 +90,23 @@ export function toErrorResponse(err: unknown): { status: number; body: ErrorBody
   return { status: 500, body: { error: { code: 'internal', message: 'Something went wrong on our side.' } } };
 }
 
-export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  const { status, body } = toErrorResponse(err);
-  if (status >= 500) console.error(`[api] ${req.method} ${req.originalUrl} failed:`, err);
-  res.status(status).json(body);
-};
+function pgCode(err: DatabaseError): string {
+  const code = (err.original as { code?: unknown } | undefined)?.code;
+  return typeof code === 'string' ? code : '';
+}
+
+/**
+ * The error middleware. Server-side failures are logged without the SQL or its parameters and
+ * with the URL's secrets redacted (see logger.ts); a 503 says when to try again.
+ */
+export function errorHandler(logger: Logger): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    const { status, body } = toErrorResponse(err);
+    if (status >= 500) logger.error({ err: describeError(err), method: req.method, url: redactUrl(req.originalUrl) }, 'request failed');
+    if (status === 503) res.setHeader('Retry-After', '30');
+    res.status(status).json(body);
+  };
+}
 
 export const apiNotFound: RequestHandler = (req, res) => {
   res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.baseUrl}${req.path}.` } });

@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { toCsv, unescapeCell } from '../csv';
 import { formatLength, parseLength, type LengthUnit } from '../domain/units';
 
 /**
@@ -47,7 +48,7 @@ export function chartToCsv(chart: CsvChart, catalog: CsvColumn[], unit: LengthUn
     ...chart.bodyColumns.map((k) => cell(s.bodyMm[k])),
     ...chart.finishedColumns.map((k) => cell(s.finishedMm[k])),
   ]);
-  return Papa.unparse({ fields, data }, { newline: '\r\n' });
+  return toCsv({ fields, data });
 }
 
 export function csvToChart(
@@ -92,7 +93,7 @@ export function csvToChart(
   const labels = new Set<string>();
   rows.forEach((cells, i) => {
     const row = i + 2; // the header is row 1, as a spreadsheet numbers them
-    const label = (cells[0] ?? '').trim();
+    const label = unescapeCell((cells[0] ?? '').trim());
     if (!label) problems.push({ row, column: header[0] ?? 'Size', message: 'the size label is empty' });
     else if (label.length > 20) problems.push({ row, column: header[0] ?? 'Size', message: 'a size label has at most 20 characters' });
     else if (labels.has(label.toLowerCase())) problems.push({ row, column: header[0] ?? 'Size', message: `size "${label}" appears twice` });

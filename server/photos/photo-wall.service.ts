@@ -24,7 +24,8 @@ export async function trialPhotoWall(trial: LoadedTrial | Trial, filter: WallFil
         model: Enrollment,
         as: 'enrollment',
         required: true,
-        where: { trialId: trial.id, ...(filter.sizeId ? { sizeId: filter.sizeId } : {}) },
+        // Testers still in the trial: one who was declined or left is not on the wall.
+        where: { trialId: trial.id, status: ['active', 'finished'], ...(filter.sizeId ? { sizeId: filter.sizeId } : {}) },
         include: [{ model: User, as: 'user', attributes: ['id', 'name'] }],
       },
     ],

@@ -1,16 +1,19 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import type { AppDeps } from '../app';
+import type { RouteDeps } from '../app';
 import { requireStudio, requireUser } from '../auth/guards';
 import { PHOTO_MAX_BYTES } from '../files/content-check';
+import { rateLimit } from '../middleware/rate-limit';
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { loadTrial } from '../trials/trials.service';
 import { trialPhotoWall } from './photo-wall.service';
 import { addPhoto, deletePhoto, myPhotos, ownEnrollment, ownPhoto, photoLink, serializePhoto, setPhotoConsent } from './photos.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
+// Browsers send file names as UTF-8 without saying so; busboy's default reads them as latin1
+// and stores "café" as "cafÃ©".
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: PHOTO_MAX_BYTES, files: 1 } });
 const photoFields = z.object({
   stage: z.enum(['check-in', 'final'], { error: 'Say whether the photo is for the check-in or the final report' }),
   view: z.enum(['front', 'side', 'back', 'detail'], { error: 'Choose front, side, back or detail' }),
@@ -24,7 +27,7 @@ const wallQuery = z.object({
 });
 
 /** Mounted at /api: a tester's photos of their own enrolment, and photo links for tester and staff. */
-export function photosRouter(deps: AppDeps): Router {
+export function photosRouter(deps: RouteDeps): Router {
   const router = Router();
   const enrollment = uuidParam('enrollmentId', 'enrollment');
 
@@ -38,7 +41,10 @@ export function photosRouter(deps: AppDeps): Router {
     next();
   };
 
-  router.post('/me/enrollments/:enrollmentId/photos', requireUser, enrollment, own, upload.single('photo'), async (req, res) => {
+  // Per person, counted before the upload is read; a refused upload is given back.
+  const uploads = rateLimit(deps.limiters.photoUploads, { key: (_req, res) => res.locals.user!.id, who: 'your account (photo uploads)', refundRefused: true });
+
+  router.post('/me/enrollments/:enrollmentId/photos', requireUser, enrollment, own, uploads, upload.single('photo'), async (req, res) => {
     const fields = photoFields.parse(req.body ?? {});
     if (!req.file) {
       res.status(400).json({ error: { code: 'invalid_input', message: 'Attach the photo as the “photo” field.', fields: { photo: 'no file was sent' } } });

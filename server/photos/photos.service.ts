@@ -1,10 +1,11 @@
 import { randomUUID } from 'node:crypto';
-import { Op } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import { Enrollment, Membership, Photo, Trial, type User } from '../../db/models';
 import { can } from '../domain/policy';
-import { notFound, notYours } from '../errors';
+import { conflict, notFound, notYours, unavailable } from '../errors';
 import { checkPhotoFile } from '../files/content-check';
-import { processPhoto } from '../files/photo-pipeline';
+import { processPhotoBounded } from '../files/photo-pipeline';
+import { purgeSoon, scheduleDeletions, type StoredObject } from '../storage/object-deletions';
 import type { Storage } from '../storage/storage';
 
 export type PhotoInput = { stage: Photo['stage']; view: Photo['view']; consent: Photo['consent'] };
@@ -23,8 +24,9 @@ export async function ownEnrollment(enrollmentId: string, user: User) {
  */
 export async function addPhoto(enrollmentId: string, user: User, input: PhotoInput, file: { buffer: Buffer; name: string }, storage: Storage) {
   const enrollment = await ownEnrollment(enrollmentId, user);
+  await assertMayAddPhoto(enrollment, input);
   await checkPhotoFile(file.buffer, file.name);
-  const { full, thumb } = await processPhoto(file.buffer, file.name);
+  const { full, thumb } = await processPhotoBounded(file.buffer, file.name);
   const id = randomUUID();
   const keys = { full: `photos/${id}.jpg`, thumb: `photos/${id}-thumb.jpg` };
   const stored: string[] = [];
@@ -51,26 +53,61 @@ export async function addPhoto(enrollmentId: string, user: User, input: PhotoInp
   return photo;
 }
 
+/** Detail photos one report may have (front, side and back are one each): enough for any fit question. */
+export const DETAIL_PHOTOS_PER_REPORT = 12;
+
+/**
+ * Only a tester still in the trial adds photos (one who left or was declined does not), and a
+ * report's detail photos are capped.
+ */
+async function assertMayAddPhoto(enrollment: Enrollment, input: PhotoInput) {
+  if (enrollment.status !== 'active' && enrollment.status !== 'finished') {
+    throw conflict('You are no longer in this trial, so you cannot add photos to it.');
+  }
+  if (input.view === 'detail') {
+    const details = await Photo.count({ where: { enrollmentId: enrollment.id, stage: input.stage, view: 'detail' } });
+    if (details >= DETAIL_PHOTOS_PER_REPORT) {
+      throw conflict(`A report has at most ${DETAIL_PHOTOS_PER_REPORT} detail photos. Remove one to add another.`, { photo: `at most ${DETAIL_PHOTOS_PER_REPORT} detail photos` });
+    }
+  }
+}
+
+const objectsOf = (photos: Photo[]): StoredObject[] => photos.flatMap((p) => [{ bucket: 'photos' as const, key: p.fullKey }, { bucket: 'photos' as const, key: p.thumbKey }]);
+
+/** Removes photo rows and records their stored objects for removal, in one transaction. */
+async function dropPhotos(photos: Photo[], transaction: Transaction) {
+  if (!photos.length) return;
+  await scheduleDeletions(Photo.sequelize!, objectsOf(photos), transaction);
+  await Photo.destroy({ where: { id: photos.map((p) => p.id) }, transaction });
+}
+
 /**
  * A report has one front, one side and one back photo: a new one replaces the earlier (its row
- * and stored objects go once the new one is safely stored). Details may be many.
+ * goes, and its stored objects with it, once the new one is safely stored). Details may be many.
  */
 async function replaceEarlier(photo: Photo, storage: Storage) {
   if (photo.view === 'detail') return;
   const earlier = await Photo.findAll({ where: { enrollmentId: photo.enrollmentId, stage: photo.stage, view: photo.view, id: { [Op.ne]: photo.id } } });
-  for (const old of earlier) {
-    await old.destroy();
-    await Promise.allSettled([storage.remove('photos', old.fullKey), storage.remove('photos', old.thumbKey)]);
-  }
+  if (!earlier.length) return;
+  await Photo.sequelize!.transaction((transaction) => dropPhotos(earlier, transaction));
+  await purgeSoon(Photo.sequelize!, storage);
 }
 
-/** Deleting a photo removes the stored objects as well as the row. */
+/**
+ * Deleting a photo removes the stored objects as well as the row. When the store cannot be
+ * reached the answer is 503 and nothing changes, so the tester can simply try again.
+ */
 export async function deletePhoto(photoId: string, user: User, storage: Storage) {
   const photo = await Photo.findByPk(photoId);
   if (!photo) throw notFound('photo');
   await ownEnrollment(photo.enrollmentId, user);
-  await Promise.all([storage.remove('photos', photo.fullKey), storage.remove('photos', photo.thumbKey)]);
-  await photo.destroy();
+  try {
+    await storage.check();
+  } catch {
+    throw unavailable('The file store cannot be reached just now, so the photo was not deleted. Please try again in a few minutes.');
+  }
+  await Photo.sequelize!.transaction((transaction) => dropPhotos([photo], transaction));
+  await purgeSoon(Photo.sequelize!, storage);
 }
 
 /** The caller's own photo (through their enrolment); anyone else's is not found. */
@@ -86,13 +123,14 @@ export async function setPhotoConsent(photoId: string, user: User, consent: Phot
   return photo.update({ consent });
 }
 
-/** A tester who withdraws takes their photos with them: rows and stored objects. */
-export async function removeEnrollmentPhotos(enrollmentId: string, storage: Storage) {
-  const photos = await Photo.findAll({ where: { enrollmentId } });
-  for (const photo of photos) {
-    await Promise.all([storage.remove('photos', photo.fullKey), storage.remove('photos', photo.thumbKey)]);
-    await photo.destroy();
-  }
+/**
+ * A tester who withdraws takes their photos with them: the rows go in the caller's transaction
+ * and the stored objects are recorded for removal in it (removed after the commit, or by the job
+ * once a store that is down answers again).
+ */
+export async function removeEnrollmentPhotos(enrollmentId: string, transaction: Transaction) {
+  const photos = await Photo.findAll({ where: { enrollmentId }, transaction, lock: transaction.LOCK.UPDATE });
+  await dropPhotos(photos, transaction);
   return photos.length;
 }
 

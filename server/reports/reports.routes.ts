@@ -1,7 +1,7 @@
 import { Router, type Response } from 'express';
-import Papa from 'papaparse';
 import { z } from 'zod';
 import { requireStudio, requireUser } from '../auth/guards';
+import { toCsv } from '../csv';
 import { otherTextKey } from '../domain/schemas/findings';
 import { otherMappingsOf } from '../findings/findings.service';
 import { countedAlterations, reportSaveSchema, reportSubmitSchema } from '../domain/schemas/reports';
@@ -93,7 +93,7 @@ export function trialReportsRouter(): Router {
         ? alterations.map((a) => ({ ...base, area: a.area ?? '', kind: a.kind === 'other' ? `other: ${a.otherText}` : a.kind, read_as: a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? '') : '', amount_mm: a.amountMm, where: a.where ?? '', note: a.note }))
         : [{ ...base, area: '', kind: '', read_as: '', amount_mm: '', where: '', note: '' }];
     });
-    res.type('text/csv').attachment(`${trial.slug}-reports.csv`).send(Papa.unparse(rows, { newline: '\r\n' }));
+    res.type('text/csv').attachment(`${trial.slug}-reports.csv`).send(toCsv(rows));
   });
   return router;
 }

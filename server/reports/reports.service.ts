@@ -1,4 +1,4 @@
-import type { Transaction } from 'sequelize';
+import { Op, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { Draft, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Report, Trial, User } from '../../db/models';
 import { alterationKindsFor } from '../domain/alterations';
@@ -189,7 +189,8 @@ export async function submitReport(enrollmentId: string, stage: Stage, user: Use
 export async function trialReports(trial: Trial, filter: { stage?: Stage; sizeId?: string; draft?: number; variant?: string }) {
   const enrollments = await Enrollment.findAll({
     where: { trialId: trial.id, ...(filter.sizeId ? { sizeId: filter.sizeId } : {}) },
-    include: [{ model: User, as: 'user' }, { model: Report, as: 'reports' }],
+    // Only what the tester submitted: a report they are still writing is theirs alone.
+    include: [{ model: User, as: 'user' }, { model: Report, as: 'reports', where: { submittedAt: { [Op.ne]: null } }, required: false }],
     order: [['createdAt', 'ASC']],
   });
   const sizes = new Map((await PatternSize.findAll({ where: { patternId: trial.patternId } })).map((s) => [s.id, s.label]));

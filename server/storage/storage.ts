@@ -12,6 +12,7 @@ export type Storage = {
   check(): Promise<void>;
   /** Stores bytes under a key; a store that cannot be reached becomes a clear 503. */
   put(bucket: Bucket, key: string, body: Buffer, contentType: string): Promise<void>;
+  /** Removes an object (a missing one is fine); a store that cannot be reached becomes a clear 503. */
   remove(bucket: Bucket, key: string): Promise<void>;
   /** A download link that works for a few minutes (never more than 5), naming the file. */
   signedUrl(bucket: Bucket, key: string, fileName: string, seconds?: number): Promise<string>;
@@ -48,18 +49,25 @@ export function createStorage(config: Config['s3']): Storage {
           abortSignal: AbortSignal.timeout(30_000),
         });
       } catch (error) {
-        console.error('[storage] put failed:', error);
+        console.error('[storage] put failed:', error instanceof Error ? error.message : error);
         throw unavailable('The file store cannot be reached just now, so nothing was saved. Please try again in a few minutes.');
       }
     },
     async remove(bucket, key) {
-      await client.send(new DeleteObjectCommand({ Bucket: name(bucket), Key: key }));
+      try {
+        await client.send(new DeleteObjectCommand({ Bucket: name(bucket), Key: key }), { abortSignal: AbortSignal.timeout(10_000) });
+      } catch (error) {
+        console.error('[storage] remove failed:', error instanceof Error ? error.message : error);
+        throw unavailable('The file store cannot be reached just now, so nothing was removed. Please try again in a few minutes.');
+      }
     },
     async signedUrl(bucket, key, fileName, seconds = SIGNED_URL_SECONDS) {
+      // RFC 6266: a plain-ASCII name for old clients, and the real name, UTF-8, in filename*.
       const safe = fileName.replace(/[^\w.\- ]+/g, '_');
+      const disposition = `attachment; filename="${safe}"; filename*=UTF-8''${encodeURIComponent(fileName).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`)}`;
       return getSignedUrl(
         client,
-        new GetObjectCommand({ Bucket: name(bucket), Key: key, ResponseContentDisposition: `attachment; filename="${safe}"` }),
+        new GetObjectCommand({ Bucket: name(bucket), Key: key, ResponseContentDisposition: disposition }),
         { expiresIn: Math.min(seconds, SIGNED_URL_SECONDS) },
       );
     },

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import type { AppDeps } from '../app';
+import type { RouteDeps } from '../app';
 import { requireStudio, requireUser } from '../auth/guards';
 import { createStudioSchema, updateStudioSchema } from '../domain/schemas/studios';
 import { invitationsRouter } from '../invitations/invitations.routes';
@@ -11,7 +11,7 @@ import { validate } from '../middleware/validate';
 import { serializeStudio } from '../serializers';
 import { createStudio, deleteStudio, getStudio, myStudios, updateStudio } from './studios.service';
 
-export function studiosRouter(deps: AppDeps): Router {
+export function studiosRouter(deps: RouteDeps): Router {
   const router = Router();
 
   router.get('/', requireUser, async (_req, res) => {
@@ -38,7 +38,7 @@ export function studiosRouter(deps: AppDeps): Router {
   );
 
   router.delete('/:studioId', requireStudio('studio.delete', 'delete the studio'), async (req, res) => {
-    await deleteStudio(res.locals.membership!.studioId);
+    await deleteStudio(res.locals.membership!.studioId, deps);
     res.status(204).end();
   });
 

@@ -1,4 +1,4 @@
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Membership, Studio, User } from '../../db/models';
 import type { z } from 'zod';
 import type { createStudioSchema, updateStudioSchema } from '../domain/schemas/studios';
@@ -6,6 +6,8 @@ import { STAFF_ROLES } from '../domain/roles';
 import { mergeAnalysisSettings } from '../domain/studio-settings';
 import { notFound } from '../errors';
 import { serializeStudio, serializeUser } from '../serializers';
+import { purgeSoon, scheduleDeletions } from '../storage/object-deletions';
+import type { Storage } from '../storage/storage';
 
 function slugify(name: string): string {
   const base = name
@@ -49,8 +51,32 @@ export async function updateStudio(studioId: string, input: z.output<typeof upda
   return studio.update({ ...fields, settings: merged });
 }
 
-export async function deleteStudio(studioId: string): Promise<void> {
-  await Studio.destroy({ where: { id: studioId } });
+/**
+ * Deletes the studio with everything in it. Its stored objects (draft files, testers' photos)
+ * are recorded for removal in the same transaction and removed after it, or by the job once a
+ * store that is down answers again: nothing is left in the buckets.
+ */
+export async function deleteStudio(studioId: string, deps: { sequelize: Sequelize; storage: Storage }): Promise<void> {
+  await deps.sequelize.transaction(async (transaction) => {
+    const photos = await deps.sequelize.query<{ full_key: string; thumb_key: string }>(
+      `SELECT p.full_key, p.thumb_key FROM photos p JOIN enrollments e ON e.id = p.enrollment_id JOIN trials t ON t.id = e.trial_id WHERE t.studio_id = $1`,
+      { bind: [studioId], type: QueryTypes.SELECT, transaction },
+    );
+    const files = await deps.sequelize.query<{ object_key: string }>(
+      `SELECT f.object_key FROM draft_files f JOIN drafts d ON d.id = f.draft_id JOIN patterns p ON p.id = d.pattern_id WHERE p.studio_id = $1`,
+      { bind: [studioId], type: QueryTypes.SELECT, transaction },
+    );
+    await scheduleDeletions(
+      deps.sequelize,
+      [
+        ...photos.flatMap((p) => [{ bucket: 'photos' as const, key: p.full_key }, { bucket: 'photos' as const, key: p.thumb_key }]),
+        ...files.map((f) => ({ bucket: 'drafts' as const, key: f.object_key })),
+      ],
+      transaction,
+    );
+    await Studio.destroy({ where: { id: studioId }, transaction });
+  });
+  await purgeSoon(deps.sequelize, deps.storage);
 }
 
 export async function getStudio(studioId: string): Promise<Studio> {

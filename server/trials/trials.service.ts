@@ -7,6 +7,7 @@ import { formatInZone } from '../domain/time-zones';
 import { MILESTONE_KINDS, milestoneOrderProblems, type MilestoneKind } from '../domain/trials';
 import type { LengthUnit } from '../domain/units';
 import { badRequest, conflict, notFound } from '../errors';
+import { removeEnrollmentPhotos } from '../photos/photos.service';
 
 const ZERO_UUID = '00000000-0000-0000-0000-000000000000';
 
@@ -198,6 +199,38 @@ export async function proposalFor(trial: Trial, unit: LengthUnit) {
   return proposeSelection(targetsOf(trial), applicants, { unit });
 }
 
+/**
+ * A selected applicant's enrolment: created, or made active again when an earlier decision had
+ * dropped it (selected, declined, then selected again). A selected tester belongs to the studio's
+ * testers from then on.
+ */
+async function enrol(app: Application, transaction: Transaction) {
+  const trial = (await Trial.findByPk(app.trialId, { transaction }))!;
+  const [enrollment, created] = await Enrollment.findOrCreate({
+    where: { applicationId: app.id },
+    defaults: { trialId: trial.id, applicationId: app.id, userId: app.userId, sizeId: app.sizeId!, variantId: app.variantId, status: 'active' },
+    transaction,
+  });
+  if (!created && enrollment.status === 'dropped') {
+    await enrollment.update({ status: 'active', sizeId: app.sizeId!, variantId: app.variantId }, { transaction });
+  }
+  await Membership.findOrCreate({ where: { studioId: trial.studioId, userId: app.userId }, defaults: { studioId: trial.studioId, userId: app.userId, role: 'tester' }, transaction });
+}
+
+/**
+ * A tester who is no longer in any of the studio's trials (declined after selection, or withdrawn)
+ * stops being one of its members. Staff roles are kept: they were given by invitation, not by a
+ * selection.
+ */
+export async function releaseTesterMembership(studioId: string, userId: string, transaction: Transaction) {
+  const stillIn = await Enrollment.count({
+    where: { userId, status: { [Op.in]: ['active', 'finished'] } },
+    include: [{ model: Trial, as: 'trial', where: { studioId }, required: true }],
+    transaction,
+  });
+  if (stillIn === 0) await Membership.destroy({ where: { studioId, userId, role: 'tester' }, transaction });
+}
+
 export type DecisionEffects = { selected: Application[]; waitlisted: Application[]; declined: Application[] };
 
 /**
@@ -232,16 +265,13 @@ export async function decide(studioId: string, trialId: string, input: z.output<
       if (was === input.status) continue;
       await app.update({ status: input.status, decidedAt: new Date() }, { transaction });
       if (input.status === 'selected') {
-        await Enrollment.findOrCreate({
-          where: { applicationId: app.id },
-          defaults: { trialId, applicationId: app.id, userId: app.userId, sizeId: app.sizeId!, variantId: app.variantId, status: 'active' },
-          transaction,
-        });
-        // A selected tester belongs to the studio's testers from now on.
-        await Membership.findOrCreate({ where: { studioId, userId: app.userId }, defaults: { studioId, userId: app.userId, role: 'tester' }, transaction });
+        await enrol(app, transaction);
         effects.selected.push(app);
       } else {
-        if (was === 'selected') await Enrollment.update({ status: 'dropped' }, { where: { applicationId: app.id }, transaction });
+        if (was === 'selected') {
+          await Enrollment.update({ status: 'dropped' }, { where: { applicationId: app.id }, transaction });
+          await releaseTesterMembership(studioId, app.userId, transaction);
+        }
         if (input.status === 'waitlisted') effects.waitlisted.push(app);
         if (input.status === 'declined') effects.declined.push(app);
       }
@@ -263,6 +293,10 @@ export async function withdraw(user: User, applicationId: string) {
     const wasSelected = app.status === 'selected';
     await app.update({ status: 'withdrawn', decidedAt: new Date() }, { transaction });
     await Enrollment.update({ status: 'dropped' }, { where: { applicationId: app.id }, transaction });
+    // The tester takes their photos with them, in this same transaction (objects removed after it).
+    const enrollment = await Enrollment.findOne({ where: { applicationId: app.id }, transaction });
+    if (enrollment) await removeEnrollmentPhotos(enrollment.id, transaction);
+    await releaseTesterMembership((await Trial.findByPk(app.trialId, { transaction }))!.studioId, app.userId, transaction);
     if (!wasSelected || !app.sizeId) return { application: app, offered: null, offerReason: null };
 
     const trial = (await Trial.findByPk(app.trialId, { transaction }))!;
@@ -275,12 +309,7 @@ export async function withdraw(user: User, applicationId: string) {
     if (!offer) return { application: app, offered: null, offerReason: null };
     const next = rows.find((r) => r.id === offer.applicantId)!;
     await next.update({ status: 'selected', decidedAt: new Date(), decisionReason: offer.reason.slice(0, 500) }, { transaction });
-    await Enrollment.findOrCreate({
-      where: { applicationId: next.id },
-      defaults: { trialId: trial.id, applicationId: next.id, userId: next.userId, sizeId: next.sizeId!, variantId: next.variantId, status: 'active' },
-      transaction,
-    });
-    await Membership.findOrCreate({ where: { studioId: trial.studioId, userId: next.userId }, defaults: { studioId: trial.studioId, userId: next.userId, role: 'tester' }, transaction });
+    await enrol(next, transaction);
     return { application: app, offered: next, offerReason: offer.reason };
   });
 }

@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { uniqueEmail } from '../support/factories';
-import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { confirmSignUpInBrowser, SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { firstLink, waitForMessage } from '../support/inbox';
 
 const WIDE = { width: 1280, height: 800 };
@@ -25,6 +25,9 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await page.getByLabel('E-mail').fill(designerEmail);
     await page.getByLabel('Password').fill('pins and needles');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'sign-up-check-email-wide.png') });
+    await confirmSignUpInBrowser(page, designerEmail);
 
     await page.getByRole('heading', { name: 'Your studios' }).waitFor();
     await page.getByLabel('Studio name').fill('Slipstitch Studio');
@@ -48,7 +51,7 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'invite-members-wide.png'), fullPage: true });
 
     // The grader, on a phone, with the link from the local inbox.
-    const mail = await waitForMessage(graderEmail, 'Invitation to Slipstitch Studio');
+    const mail = await waitForMessage(graderEmail, 'Invitation to the studio “Slipstitch Studio”');
     const link = firstLink(mail.text, '/invitations/');
     expect(link.startsWith(h.baseUrl)).toBe(true);
 
@@ -64,6 +67,10 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await phone.getByLabel('E-mail').fill(graderEmail);
     await phone.getByLabel('Password').fill('grade rules rule');
     await phone.getByRole('button', { name: 'Create account' }).click();
+    await phone.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'sign-up-check-email-phone.png') });
+    // The link in the confirmation e-mail brings the grader back to the invitation, signed in.
+    await confirmSignUpInBrowser(phone, graderEmail);
 
     await phone.getByRole('button', { name: 'Accept the invitation' }).click();
     await phone.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
@@ -79,6 +86,12 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     // Typing the address of a page the role may not use shows nothing of it.
     await phone.goto('/members');
     await phone.getByText('Could not load this: A grader of this studio may not see the member list.').first().waitFor();
+
+    // A spent or mistyped confirmation link says so and offers the way forward.
+    await phone.goto(`/verify-email?token=${'x'.repeat(43)}`);
+    await phone.getByText('This link has expired or was used already. Create the account again to get a new one.').waitFor();
+    await phone.getByRole('link', { name: 'Create the account again' }).waitFor();
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'verify-email-spent-phone.png') });
 
     // Back with the designer: the grader is now a member.
     await page.reload();

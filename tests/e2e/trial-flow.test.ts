@@ -2,7 +2,7 @@ import path from 'node:path';
 import request from 'supertest';
 import type { Page } from 'playwright-core';
 import { addMember, bearer, createStudio, createUser, TEST_PASSWORD, uniqueEmail } from '../support/factories';
-import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { confirmSignUpInBrowser, SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
 import { waitForMessage } from '../support/inbox';
 import { toLocalText } from '../../components/trials/dates';
 
@@ -27,6 +27,7 @@ describe('a fit trial from call to selection, in Chromium', () => {
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('bias tape and basting');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await confirmSignUpInBrowser(page, email);
     await page.getByRole('heading', { name: 'Apply' }).waitFor();
     await page.getByRole('radiogroup', { name: 'Size you will sew' }).getByRole('radio', { name: size, exact: true }).click();
     await page.getByLabel('Fabric you plan to use').fill('Mid-weight linen');

@@ -3,6 +3,7 @@ import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { firstLink, waitForMessage } from './inbox';
 import { buildTestApp, type TestApp } from './test-app';
 
 export const SCREENSHOT_DIR = path.resolve(__dirname, '../../.artifacts/screenshots');
@@ -77,4 +78,14 @@ export async function startBrowserHarness(): Promise<BrowserHarness> {
       await t.close();
     },
   };
+}
+
+/**
+ * After "Create account": the page says to check the e-mail; the link in it (from the local
+ * inbox) confirms the address, makes the account, and returns to where the person was going.
+ */
+export async function confirmSignUpInBrowser(page: Page, email: string): Promise<void> {
+  await page.getByRole('heading', { name: 'Check your e-mail' }).waitFor();
+  const mail = await waitForMessage(email, 'Confirm your e-mail address');
+  await page.goto(firstLink(mail.text, '/verify-email'));
 }

@@ -12,12 +12,14 @@ export function uniqueEmail(prefix: string): string {
   return `${prefix}-${randomUUID().slice(0, 8)}@example.test`;
 }
 
-export async function createUser(prefix = 'user', extra: Partial<{ name: string; email: string }> = {}): Promise<User> {
+/** A user with a confirmed address (as every account made through the sign-up link has), unless `verified: false`. */
+export async function createUser(prefix = 'user', extra: Partial<{ name: string; email: string; verified: boolean }> = {}): Promise<User> {
   const passwordHash = await (hash ??= bcrypt.hash(TEST_PASSWORD, 4));
   const user = await User.create({
     email: extra.email ?? uniqueEmail(prefix),
     name: extra.name ?? `Test ${prefix}`,
     passwordHash,
+    emailVerifiedAt: extra.verified === false ? null : new Date(),
   });
   return (await User.findByPk(user.id))!;
 }

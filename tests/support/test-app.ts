@@ -2,6 +2,8 @@ import type { Express } from 'express';
 import type { Sequelize } from 'sequelize';
 import { createSequelize } from '../../db/sequelize';
 import { createApp } from '../../server/app';
+import { settleBackgroundWork } from '../../server/background';
+import { createLogger, type Logger } from '../../server/logger';
 import { loadConfig, type Config } from '../../server/config';
 import { createMailer, type Mailer } from '../../server/mail/mailer';
 import { createStorage, type Storage } from '../../server/storage/storage';
@@ -42,14 +44,17 @@ function acquireSequelize(url: string): { sequelize: Sequelize; release(): Promi
 
 /**
  * The real app against the run's own database and the running local fakes, built exactly as
- * server/index.ts builds it. `env` overrides single variables (e.g. a dead SMTP port).
+ * server/index.ts builds it. `env` overrides single variables (e.g. a dead SMTP port); `extra.logger`
+ * receives the app's log (silent by default).
  */
-export function buildTestApp(env: Record<string, string> = {}): TestApp {
+export function buildTestApp(env: Record<string, string> = {}, extra: { logger?: Logger } = {}): TestApp {
   const config = loadConfig({ ...process.env, ...env });
   const { sequelize, release } = acquireSequelize(config.databaseUrl);
   const storage = createStorage(config.s3);
   const mailer = createMailer(config.smtp);
-  const app = createApp({ config, sequelize, storage, mailer });
+  // Failures are logged as the server logs them; quiet unless a test reads them.
+  const logger = extra.logger ?? createLogger({ level: 'silent' });
+  const app = createApp({ config, sequelize, storage, mailer, logger });
   return {
     app,
     config,
@@ -57,6 +62,8 @@ export function buildTestApp(env: Record<string, string> = {}): TestApp {
     storage,
     mailer,
     async close() {
+      // Work that requests go on with after answering (sign-up, reset mail) ends first.
+      await settleBackgroundWork();
       storage.close();
       mailer.close();
       await release();

@@ -13,7 +13,7 @@ export const triageSchema = z
   .object({
     ...findingKey,
     state: z.enum(TRIAGE_STATES, { error: 'Choose open, will fix, personal fit or fixed' }),
-    fixedInDraft: z.number({ error: 'must be a draft number' }).int('must be a draft number').min(1, 'must be a draft number').nullable().optional(),
+    fixedInDraft: z.number({ error: 'must be a draft number' }).int('must be a draft number').min(1, 'must be a draft number').max(100_000, 'must be a draft number').nullable().optional(),
   })
   .superRefine((t, ctx) => {
     if (t.state === 'fixed' && t.fixedInDraft == null) ctx.addIssue({ code: 'custom', path: ['fixedInDraft'], message: 'Say which draft fixed it' });

@@ -2,7 +2,9 @@ import { z } from 'zod';
 import { FABRIC_KIND_KEYS, FINISHED_MEASUREMENT_KEYS, GARMENT_CATEGORY_KEYS } from '../garments';
 import { checkMeasurement, MEASUREMENT_KEYS, type MeasurementKey } from '../measurements';
 
-const mm = z.number({ error: 'must be a length in millimetres' }).positive('must be more than zero').max(5000, 'must be at most 5 m');
+// At least 0.1 mm: lengths are kept to a tenth of a millimetre, and a vanishing value (5e-324)
+// is no length at all — nor can the database's REAL columns hold it.
+const mm = z.number({ error: 'must be a length in millimetres' }).min(0.1, 'must be at least 0.1 mm').max(5000, 'must be at most 5 m');
 
 // The fields without defaults: a change (PATCH) must leave out what it does not send, and zod 4's
 // .partial() still fills in a field's default, which would erase the saved value.
@@ -120,7 +122,7 @@ export const fabricNeedsSchema = z.object({
         size: z.string({ error: 'Name the size (its id or label)' }).min(1),
         widthMm: z.number({ error: 'must be a width in millimetres' }).min(300, 'A fabric is at least 30 cm wide').max(4000, 'A fabric is at most 4 m wide'),
         napped: z.boolean({ error: 'must be true or false' }),
-        lengthMm: z.number({ error: 'must be a length in millimetres' }).positive('must be more than zero').max(50000, 'must be at most 50 m'),
+        lengthMm: z.number({ error: 'must be a length in millimetres' }).min(1, 'must be at least 1 mm').max(50000, 'must be at most 50 m'),
       }),
     )
     .max(2000),

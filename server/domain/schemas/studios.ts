@@ -2,14 +2,20 @@ import { z } from 'zod';
 import { INVITABLE_ROLES, ROLES } from '../roles';
 import { analysisSettingsPatchSchema } from '../studio-settings';
 import { isTimeZone } from '../time-zones';
-import { emailSchema } from './auth';
+import { emailSchema, hasNoLink } from './auth';
 
 export const timeZoneSchema = z
   .string({ error: 'Choose a time zone' })
   .refine(isTimeZone, 'Choose a time zone from the list, such as Europe/Lisbon or America/Chicago');
 
 export const createStudioSchema = z.object({
-  name: z.string({ error: 'Enter the studio name' }).trim().min(2, 'Use at least 2 characters').max(120, 'Use at most 120 characters'),
+  name: z
+    .string({ error: 'Enter the studio name' })
+    .trim()
+    .min(2, 'Use at least 2 characters')
+    .max(120, 'Use at most 120 characters')
+    // The name is quoted in the invitations the studio sends.
+    .refine(hasNoLink, { error: 'A studio name cannot contain a web or e-mail address' }),
   timeZone: timeZoneSchema.default('UTC'),
 });
 export type CreateStudioInput = z.input<typeof createStudioSchema>;

@@ -2,7 +2,16 @@ import { z } from 'zod';
 import { EXPERIENCE_LEVELS } from './profile';
 import { MILESTONE_KINDS, TESTER_MILESTONES, TRIAL_STATES } from '../trials';
 
-const isoTime = z.iso.datetime({ offset: true, error: 'must be a date and time, e.g. 2027-03-01T18:00:00+00:00' });
+/**
+ * A date and time with its offset, within years 2000–2199: a trial's dates are near today, and a
+ * year such as 0000 (which PostgreSQL has no place for) is a typing slip, refused by name.
+ */
+const isoTime = z.iso
+  .datetime({ offset: true, error: 'must be a date and time, e.g. 2027-03-01T18:00:00+00:00' })
+  .refine((v) => {
+    const year = new Date(v).getUTCFullYear();
+    return year >= 2000 && year < 2200;
+  }, 'must be a date between the years 2000 and 2199');
 
 export const coverageSchema = z.object({
   sizes: z

@@ -51,6 +51,10 @@ const MATRIX: Record<string, Row> = {
     allow: EVERYONE,
     call: () => ({ path: '/api/auth/sign-up', body: { name: 'New', email: uniqueEmail('m'), password: 'a long password' } }),
   },
+  'POST /api/auth/verify-email': {
+    allow: EVERYONE,
+    call: () => ({ path: '/api/auth/verify-email', body: { token: 'x'.repeat(43) } }),
+  },
   'POST /api/auth/sign-in': {
     allow: EVERYONE,
     call: (c) => ({ path: '/api/auth/sign-in', body: { email: c.users.grader.email, password: TEST_PASSWORD } }),

@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 import request from 'supertest';
-import { Draft, Pattern, PatternSize, PatternVariant, Trial, type User } from '../../../db/models';
+import { Draft, Pattern, PatternSize, PatternVariant, Report, Trial, type User } from '../../../db/models';
 import { bearer, createStudioWorld, createUser, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
@@ -12,13 +12,16 @@ describe('report sections: what was sewn, fabric used, and the staff filters by 
   let w: StudioWorld;
   let trial: Trial;
   let sizes: PatternSize[];
+  let testerA: Awaited<ReturnType<typeof tester>> | undefined;
   const as = (user: User) => ({ Authorization: bearer(user, t.config) });
   const list = (query: string) => request(t.app).get(`/api/studios/${w.studio.id}/trials/${trial.id}/reports${query}`).set(as(w.users.coordinator));
 
   async function tester(i: number, size: PatternSize) {
     const user = await createUser(`sections-${i}`);
     const { enrollment } = await enrolTester(trial.id, user.id, size.id);
-    return { user, url: `/api/me/enrollments/${enrollment.id}/reports/final` };
+    // Staff see submitted reports only: `submitted()` marks this one as sent.
+    const submitted = () => Report.update({ submittedAt: new Date() }, { where: { enrollmentId: enrollment.id } });
+    return { user, url: `/api/me/enrollments/${enrollment.id}/reports/final`, submitted };
   }
 
   beforeAll(async () => {
@@ -35,6 +38,7 @@ describe('report sections: what was sewn, fabric used, and the staff filters by 
 
   it('offers the chart sizes, the variants and the drafts, and keeps the fabric used with its checks', async () => {
     const a = await tester(1, sizes[0]);
+    testerA = a;
     const empty = await request(t.app).get(a.url).set(as(a.user));
     expect(empty.body.choices).toMatchObject({ sizes: ['10', '12'], chosenSize: '10', variants: ['Fuller belly'], drafts: [{ version: 1 }, { version: 2, changeNote: 'Rise lengthened' }] });
 
@@ -52,8 +56,11 @@ describe('report sections: what was sewn, fabric used, and the staff filters by 
   });
 
   it('filters the staff list and the CSV by draft and by variant ("-" is the main pattern)', async () => {
+    const a = testerA!;
     const b = await tester(2, sizes[1]);
     await request(t.app).put(b.url).set(as(b.user)).send({ baseVersion: 0, changes: { sizeSewn: '12', variantSewn: null, draftVersion: 1, alterations: [{ area: 'waist', kind: 'other', amountMm: -10, where: 'back', otherText: 'Took in the back waist' }] } }).expect(200);
+    await a.submitted();
+    await b.submitted();
 
     const draft2 = await list('?stage=final&draft=2');
     expect(draft2.body.map((r: { size: string }) => r.size)).toEqual(['10']);

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { Enrollment, Milestone, Pattern, PatternSize, Trial } from '../../../db/models';
+import { Enrollment, Milestone, Pattern, PatternSize, Report, Trial } from '../../../db/models';
 import { bearer, createStudioWorld, type StudioWorld, enrolTester } from '../../support/factories';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
@@ -90,6 +90,8 @@ describe('check-in and final reports', () => {
       .send({ baseVersion: 0, changes: { sizeSewn: 'M', draftVersion: 2, fit: { rise: -2 }, alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 19.05, where: 'back' }], verdict: 'Back rise too short.' } })
       .expect(200);
     expect((await request(t.app).get(`/api/me/enrollments/${e.id}/reports/final`).set(as(w.users.tester))).status).toBe(403);
+    // Staff see submitted reports only.
+    await Report.update({ submittedAt: new Date() }, { where: { enrollmentId: e.id } });
 
     const base = `/api/studios/${w.studio.id}/trials/${trial.id}`;
     const finals = await request(t.app).get(`${base}/reports?stage=final&draft=2`).set(as(w.users.grader));

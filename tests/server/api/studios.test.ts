@@ -37,7 +37,7 @@ describe('studios, members and invitations', () => {
     expect(sent.status).toBe(201);
     expect(sent.body).toMatchObject({ email, role: 'grader', state: 'open' });
 
-    const mail = await waitForMessage(email, 'Invitation to Studio here');
+    const mail = await waitForMessage(email, 'Invitation to the studio “Studio here”');
     expect(mail.text).toContain('as grader');
     const token = firstLink(mail.text, '/invitations/').split('/invitations/')[1];
 
