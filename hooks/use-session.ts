@@ -48,7 +48,7 @@ export async function signIn(body: { email: string; password: string }): Promise
  * Asks for an account: the server e-mails a link that confirms the address and makes the account.
  * Returns what to tell the person (the same whether or not the address has an account).
  */
-export async function signUp(body: { name: string; email: string; password: string; next?: string }): Promise<string> {
+export async function signUp(body: { name: string; email: string; password: string; timeZone?: string; next?: string }): Promise<string> {
   const res = await api<{ message: string }>('/api/auth/sign-up', { method: 'POST', body });
   return res.message;
 }

@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { User } from '../../db/models';
 import { uniqueEmail } from '../support/factories';
-import { SCREENSHOT_DIR, startBrowserHarness, type BrowserHarness } from '../support/browser';
+import { SCREENSHOT_DIR, confirmSignUpInBrowser, startBrowserHarness, type BrowserHarness } from '../support/browser';
 
 describe('a new account takes the browser’s time zone, shown and changeable', () => {
   let h: BrowserHarness;
@@ -22,7 +22,8 @@ describe('a new account takes the browser’s time zone, shown and changeable', 
     await page.getByLabel('Password').fill('pins and needles');
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'sign-up-time-zone-phone.png'), fullPage: true });
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.waitForURL((url) => !url.pathname.startsWith('/sign-up'));
+    await confirmSignUpInBrowser(page, email);
+    await page.waitForURL((url) => !url.pathname.startsWith('/verify-email'));
     const user = await User.findOne({ where: { email } });
     expect(user!.timeZone).toBe('Europe/London');
 

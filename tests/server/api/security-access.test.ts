@@ -92,7 +92,7 @@ describe('object-level access between studios and testers', () => {
     await Milestone.create({ trialId: trial.id, kind: 'final-report', dueAt: new Date(Date.now() + 5 * DAY) });
     const writer = await createUser('writer');
     const { enrollment } = await enrolTester(trial.id, writer.id, size.id);
-    await request(t.app).put(`/api/me/enrollments/${enrollment.id}/reports/final`).set(as(writer)).send({ verdict: 'first thoughts, not ready to share' }).expect(200);
+    await request(t.app).put(`/api/me/enrollments/${enrollment.id}/reports/final`).set(as(writer)).send({ baseVersion: 0, changes: { verdict: 'first thoughts, not ready to share' } }).expect(200);
 
     const list = await request(t.app).get(`/api/studios/${w.studio.id}/trials/${trial.id}/reports`).set(as(w.users.grader));
     expect(list.status).toBe(200);
@@ -100,7 +100,7 @@ describe('object-level access between studios and testers', () => {
     const csv = await request(t.app).get(`/api/studios/${w.studio.id}/trials/${trial.id}/reports.csv`).set(as(w.users.grader));
     expect(csv.text).not.toContain('not ready to share');
 
-    await request(t.app).put(`/api/me/enrollments/${enrollment.id}/reports/final`).set(as(writer)).send({ sizeSewn: 'S', draftVersion: 1, fit: { chest: 0 }, verdict: 'Fits well' }).expect(200);
+    await request(t.app).put(`/api/me/enrollments/${enrollment.id}/reports/final`).set(as(writer)).send({ baseVersion: 1, changes: { sizeSewn: 'S', draftVersion: 1, fit: { chest: 0 }, verdict: 'Fits well' } }).expect(200);
     await request(t.app).post(`/api/me/enrollments/${enrollment.id}/reports/final/submit`).set(as(writer)).expect(200);
     const after = await request(t.app).get(`/api/studios/${w.studio.id}/trials/${trial.id}/reports`).set(as(w.users.grader));
     expect(after.body.map((r: { content: { verdict: string } }) => r.content.verdict)).toEqual(['Fits well']);

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { User } from '../../../db/models';
 import { uniqueEmail } from '../../support/factories';
+import { firstLink, waitForMessage } from '../../support/inbox';
 import { buildTestApp, type TestApp } from '../../support/test-app';
 
 describe('a new account’s time zone', () => {
@@ -10,11 +11,21 @@ describe('a new account’s time zone', () => {
   });
   afterAll(() => t.close());
 
+  /** The account is made from the link in the confirmation e-mail. */
+  async function confirm(email: string) {
+    const mail = await waitForMessage(email, 'Confirm your e-mail address');
+    const token = new URL(firstLink(mail.text, '/verify-email')).searchParams.get('token')!;
+    const done = await request(t.app).post('/api/auth/verify-email').send({ token });
+    expect(done.status).toBe(201);
+    return done;
+  }
+
   it('is the one sent with the sign-up (the form sends the device’s zone)', async () => {
     const email = uniqueEmail('london');
     const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'Lon Don', email, password: 'a long enough pass', timeZone: 'Europe/London' });
-    expect(res.status).toBe(201);
-    expect(res.body.user.timeZone).toBe('Europe/London');
+    expect(res.status).toBe(202);
+    // Kept with the sign-up until the address is confirmed, then given to the account.
+    expect((await confirm(email)).body.user.timeZone).toBe('Europe/London');
     expect((await User.findOne({ where: { email } }))!.timeZone).toBe('Europe/London');
   });
 
@@ -28,8 +39,9 @@ describe('a new account’s time zone', () => {
   });
 
   it('is UTC when none is sent', async () => {
-    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'Plain', email: uniqueEmail('plain'), password: 'a long enough pass' });
-    expect(res.status).toBe(201);
-    expect(res.body.user.timeZone).toBe('UTC');
+    const email = uniqueEmail('plain');
+    const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'Plain', email, password: 'a long enough pass' });
+    expect(res.status).toBe(202);
+    expect((await confirm(email)).body.user.timeZone).toBe('UTC');
   });
 });
