@@ -18,6 +18,7 @@ import { myReportsRouter } from './reports/reports.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { mailLinksRouter } from './outbox/outbox.routes';
 import { profileRouter } from './profile/profile.routes';
+import { calendarFeedRouter, myDataRouter } from './me/me.routes';
 import type { Storage } from './storage/storage';
 import { studiosRouter } from './studios/studios.routes';
 
@@ -40,6 +41,8 @@ function apiRouter(deps: AppDeps): express.Router {
   api.use('/mail', mailLinksRouter(deps));
   api.use('/me', profileRouter());
   api.use('/me', myTrialsRouter(deps));
+  api.use('/me', myDataRouter(deps));
+  api.use('/calendar', calendarFeedRouter(deps));
   api.use('/calls', callsRouter(deps));
   api.use(draftLinksRouter(deps));
   api.use(photosRouter(deps));

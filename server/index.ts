@@ -17,7 +17,7 @@ async function main() {
   const mailer = createMailer(config.smtp);
   const app = createApp({ config, sequelize, storage, mailer });
   // Reminders, digests and mail retries run from the persistent queue in PostgreSQL.
-  const jobs = await startJobQueue({ config, mailer }, { databaseUrl: config.databaseUrl });
+  const jobs = await startJobQueue({ config, mailer, storage }, { databaseUrl: config.databaseUrl });
 
   const server: Server = app.listen(config.port, config.host, () => {
     console.log(`Basted listening on http://${config.host}:${config.port}`);

@@ -10,6 +10,7 @@ import * as reports from './0007-reports';
 import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
+import * as releaseAndCommunity from './0021-release-and-community';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -26,4 +27,5 @@ export const migrations: Migration[] = [
   { name: '0009-mail-outbox', ...mailOutbox },
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
+  { name: '0021-release-and-community', ...releaseAndCommunity },
 ];

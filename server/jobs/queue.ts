@@ -1,11 +1,14 @@
 import PgBoss from 'pg-boss';
 import type { OutboxDeps } from '../outbox/outbox.service';
 import { flushOutbox } from '../outbox/outbox.service';
+import type { Storage } from '../storage/storage';
+import { sweepPhotoRetention } from './photo-retention';
 import { runMailTick } from './tick';
 
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
 export const MAIL_TICK_QUEUE = 'mail-tick';
 export const OUTBOX_FLUSH_QUEUE = 'outbox-flush';
+export const PHOTO_RETENTION_QUEUE = 'photo-retention';
 
 export type JobQueue = {
   boss: PgBoss;
@@ -18,6 +21,8 @@ export type JobQueueOptions = {
   tickCron?: string;
   /** Cron for retries of failed sends. */
   flushCron?: string;
+  /** Cron for removing photos past the studio's keeping period (daily, at night). */
+  retentionCron?: string;
   /** Set false in tests that drive the clock themselves. */
   schedule?: boolean;
   /** Log each tick that did something (on by default). */
@@ -29,15 +34,17 @@ export type JobQueueOptions = {
  * with several instances each cron slot runs once (pg-boss de-duplicates schedules, and the
  * outbox claims rows under SKIP LOCKED, so even two runs at once send nothing twice).
  */
-export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions): Promise<JobQueue> {
+export async function startJobQueue(deps: OutboxDeps & { storage?: Storage }, options: JobQueueOptions): Promise<JobQueue> {
   const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 3, application_name: 'basted-jobs' });
   boss.on('error', (error: unknown) => console.error('[jobs]', error));
   await boss.start();
   await boss.createQueue(MAIL_TICK_QUEUE, { name: MAIL_TICK_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
   await boss.createQueue(OUTBOX_FLUSH_QUEUE, { name: OUTBOX_FLUSH_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+  await boss.createQueue(PHOTO_RETENTION_QUEUE, { name: PHOTO_RETENTION_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 300, expireInSeconds: 3600 });
   if (options.schedule !== false) {
     await boss.schedule(MAIL_TICK_QUEUE, options.tickCron ?? '*/5 * * * *');
     await boss.schedule(OUTBOX_FLUSH_QUEUE, options.flushCron ?? '* * * * *');
+    if (deps.storage) await boss.schedule(PHOTO_RETENTION_QUEUE, options.retentionCron ?? '17 3 * * *');
   }
   await boss.work(MAIL_TICK_QUEUE, async () => {
     const result = await runMailTick(deps, new Date());
@@ -46,6 +53,13 @@ export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions):
   await boss.work(OUTBOX_FLUSH_QUEUE, async () => {
     await flushOutbox(deps, new Date());
   });
+  const storage = deps.storage;
+  if (storage) {
+    await boss.work(PHOTO_RETENTION_QUEUE, async () => {
+      const result = await sweepPhotoRetention(storage, new Date());
+      if (options.log !== false && (result.photos || result.failed)) console.log('[jobs] photo retention', JSON.stringify(result));
+    });
+  }
   return {
     boss,
     async stop() {
