@@ -12,10 +12,11 @@ import { buildTestApp, type TestApp } from '../../support/test-app';
 
 let t: TestApp;
 const as = (user: Parameters<typeof bearer>[0]) => ({ Authorization: bearer(user, t.config) });
-const binary = (r: NodeJS.ReadableStream, done: (e: Error | null, b: Buffer) => void) => {
+const binary = (r: request.Response, done: (e: Error | null, b: Buffer) => void) => {
   const chunks: Buffer[] = [];
-  r.on('data', (c: Buffer) => chunks.push(c));
-  r.on('end', () => done(null, Buffer.concat(chunks)));
+  const stream = r as unknown as NodeJS.ReadableStream;
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => done(null, Buffer.concat(chunks)));
 };
 
 beforeAll(() => {
