@@ -68,7 +68,9 @@ export function releaseChecklist(input: ChecklistInput): ChecklistItem[] {
         flagged.length === 0
           ? 'No finding needs a decision.'
           : untriaged.length === 0
-            ? `All ${plural(flagged.length, 'finding')} that point at the pattern or at personal fit are triaged.`
+            ? flagged.length === 1
+              ? 'The one finding that points at the pattern or at personal fit is triaged.'
+              : `All ${flagged.length} findings that point at the pattern or at personal fit are triaged.`
             : `${plural(untriaged.length, 'finding')} still open.`,
       open: untriaged.map((f) => `${f.name} (${[...f.classes].map((c) => CLASS_LABELS[c].toLowerCase()).join(', ')}): still open`),
       fix: { label: 'Triage the findings', link: { screen: 'findings', trialId: input.trialId } },
@@ -103,7 +105,7 @@ export function releaseChecklist(input: ChecklistInput): ChecklistItem[] {
       ok: owing.length === 0,
       detail: owing.length === 0 ? 'No tester still owes a final report.' : `${plural(owing.length, 'tester')} neither finished nor excused.`,
       open: owing.map((t) => `${t.name}: no final report`),
-      fix: { label: 'Excuse or remind testers', link: { screen: 'release', trialId: input.trialId } },
+      fix: { label: 'Excuse testers who stopped', link: { screen: 'release', trialId: input.trialId } },
     },
     {
       key: 'final-draft',

@@ -82,7 +82,8 @@ export async function trialSummary(studioId: string, trialId: string, units: Rea
     size: c.size,
     change: c.amountMm === null ? null : reader.fine(c.amountMm),
     changeMm: c.amountMm === null ? null : Math.round(c.amountMm * 10) / 10,
-    range: c.interval ? `${reader.fine(c.interval[0])} to ${reader.fine(c.interval[1])}` : null,
+    // An interval whose ends read the same in the reader's unit says nothing more than the change.
+    range: c.interval && reader.fine(c.interval[0]) !== reader.fine(c.interval[1]) ? `${reader.fine(c.interval[0])} to ${reader.fine(c.interval[1])}` : null,
     basis: c.basis,
     note: c.note,
   }));

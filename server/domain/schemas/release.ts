@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { emailSchema } from './auth';
 import { CHECKLIST_KEYS } from '../release';
 
 /** The studio's choices before a release: the final draft and the note that accepts a coverage gap. */
@@ -82,3 +83,18 @@ export const deleteAccountSchema = z.object({
   confirm: z.literal('delete', { error: 'Type delete to confirm' }),
 });
 export type DeleteAccountInput = z.input<typeof deleteAccountSchema>;
+
+/** The studio's contact address and photo keeping period, as the settings form holds them. */
+export const contactSettingsFormSchema = z
+  .object({
+    contactEmail: z.union([z.literal(''), emailSchema]),
+    keepPhotos: z.enum(['days', 'always'], { error: 'Choose how long photos are kept' }),
+    photoRetentionDays: z.string().trim(),
+  })
+  .superRefine((v, ctx) => {
+    if (v.keepPhotos !== 'days') return;
+    const days = Number(v.photoRetentionDays);
+    if (!/^\d+$/.test(v.photoRetentionDays) || !Number.isInteger(days)) ctx.addIssue({ code: 'custom', path: ['photoRetentionDays'], message: 'Enter a whole number of days' });
+    else if (days > 3650) ctx.addIssue({ code: 'custom', path: ['photoRetentionDays'], message: 'At most 3650 days (ten years)' });
+  });
+export type ContactSettingsForm = z.input<typeof contactSettingsFormSchema>;
