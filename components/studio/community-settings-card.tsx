@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import useSWR, { mutate } from 'swr';
 import { applyApiError } from '@/components/forms/api-errors';
 import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
@@ -18,7 +18,7 @@ function Form({ studio, canEdit }: { studio: StudioSettings; canEdit: boolean })
   const key = `/api/studios/${studio.id}`;
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
-  const { control, handleSubmit, setError, formState, watch } = useForm<ContactSettingsForm>({
+  const { control, handleSubmit, setError, formState } = useForm<ContactSettingsForm>({
     resolver: zodResolver(contactSettingsFormSchema),
     defaultValues: {
       contactEmail: studio.settings.contactEmail ?? '',
@@ -26,6 +26,7 @@ function Form({ studio, canEdit }: { studio: StudioSettings; canEdit: boolean })
       photoRetentionDays: studio.settings.photoRetentionDays === null ? '365' : String(studio.settings.photoRetentionDays),
     },
   });
+  const keepPhotos = useWatch({ control, name: 'keepPhotos' });
   const submit = handleSubmit(async (v) => {
     setFormError(null);
     setSaved(false);
@@ -63,7 +64,7 @@ function Form({ studio, canEdit }: { studio: StudioSettings; canEdit: boolean })
           />
         )}
       />
-      {watch('keepPhotos') === 'days' ? (
+      {keepPhotos === 'days' ? (
         <FormTextField control={control} name="photoRetentionDays" label="Days to keep photos after the release" inputMode="numeric" editable={canEdit} />
       ) : null}
       {formError ? <Notice tone="error">{formError}</Notice> : null}
