@@ -77,5 +77,5 @@ function Form({ studio, canEdit }: { studio: StudioSettings; canEdit: boolean })
 /** The studio's address for testers' replies and how long testers' photos are kept after a release. */
 export function CommunitySettingsCard({ studioId, canEdit }: { studioId: string; canEdit: boolean }) {
   const { data } = useSWR<StudioSettings>(`/api/studios/${studioId}`);
-  return <Card title="Testers’ replies and photos">{data?.settings ? <Form key={JSON.stringify(data.settings)} studio={data} canEdit={canEdit} /> : null}</Card>;
+  return <Card title="Testers’ replies and photos">{data?.settings ? <Form key={data.id} studio={data} canEdit={canEdit} /> : null}</Card>;
 }
