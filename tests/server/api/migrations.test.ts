@@ -150,9 +150,11 @@ describe('migrations', () => {
       expect(Number(counts.users)).toBe(DEMO_ACCOUNTS.length + 40); // and forty invented applicants
       expect(Number(counts.studios)).toBe(1);
       expect(Number(counts.memberships)).toBeGreaterThanOrEqual(DEMO_ACCOUNTS.length);
-      expect(Number(counts.patterns)).toBe(1);
-      expect(Number(counts.sizes)).toBe(11);
-      expect(Number(counts.applications)).toBe(40);
+      // The trousers and the earlier, released top, each in sizes 0–20.
+      expect(Number(counts.patterns)).toBe(2);
+      expect(Number(counts.sizes)).toBe(22);
+      // Forty for the trousers, twenty-two for the top (returning testers: no new accounts).
+      expect(Number(counts.applications)).toBe(62);
     });
   });
 });
