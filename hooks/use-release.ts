@@ -41,7 +41,7 @@ export type TrialSummary = {
       findings: { name: string; kind: string; direction: string; class: string; classLabel: string; count: number; testers: number; rate: number; sizes: string[]; triageLabel: string }[];
     }[];
     latestDraft: string | null;
-    changes: { finding: string; class: string; size: string; change: string | null; changeMm: number | null; range: string | null; basis: string; note: string }[];
+    changes: { finding: string; class: string; size: string; change: string; changeMm: number | null; range: string | null; basis: string; note: string }[];
   };
   drafts: { id: string; version: number; changeNote: string; createdAt: string; final: boolean; files: { kind: string; name: string; bytes: number }[] }[];
   photos: { id: string; size: string; stage: string; view: string; width: number; height: number; thumbUrl: string | null }[];

@@ -127,7 +127,7 @@ export function TrialSummaryView({ studioId, trialId }: { studioId: string; tria
             label="Changes per size"
             testID="summary-changes"
             columns={[{ title: 'Finding', flex: 3, minWidth: 110 }, { title: 'Size', flex: 1 }, { title: 'Change', flex: 1.4, align: 'right' }, ...(wide ? [{ title: 'Range', flex: 2.5 }] : [])]}
-            rows={s.findings.changes.map((c) => [c.finding, c.size, c.change ?? 'no change', ...(wide ? [c.range ?? '–'] : [])])}
+            rows={s.findings.changes.map((c) => [c.finding, c.size, c.change, ...(wide ? [c.range ?? '–'] : [])])}
           />
         )}
       </Card>

@@ -113,7 +113,8 @@ export async function summaryPdf(summary: TrialSummary, storage: Storage | null)
   for (const d of summary.findings.drafts) {
     ensure(40);
     doc.moveDown(0.3);
-    para(`Draft ${d.draft}: ${d.testers} testers reported${d.others ? `; ${d.others} other alteration kinds point at no pattern problem or had too few reports` : ''}.`, INK, 10);
+    const others = d.others === 1 ? '1 other kind of alteration points' : `${d.others} other kinds of alteration point`;
+    para(`Draft ${d.draft}: ${d.testers} testers reported${d.others ? `; ${others} at no pattern problem or had too few reports` : ''}.`, INK, 10);
     doc.moveDown(0.2);
     if (d.findings.length === 0) {
       para('Nothing points at the pattern.', MUTED);
@@ -130,7 +131,7 @@ export async function summaryPdf(summary: TrialSummary, storage: Storage | null)
   else
     table(
       [{ title: 'Finding', width: 3.5 }, { title: 'Size', width: 1 }, { title: 'Change', width: 1.6, align: 'right' }, { title: 'Range', width: 2.6 }, { title: 'Note', width: 3 }],
-      summary.findings.changes.map((c) => [c.finding, c.size, c.change ?? '-', c.range ?? '', c.note]),
+      summary.findings.changes.map((c) => [c.finding, c.size, c.change, c.range ?? '', c.note]),
     );
 
   heading('Draft history');

@@ -80,7 +80,8 @@ export async function trialSummary(studioId: string, trialId: string, units: Rea
     finding: findingName(c),
     class: CLASS_LABELS[c.class],
     size: c.size,
-    change: c.amountMm === null ? null : reader.fine(c.amountMm),
+    // As the change table on screen says it: nothing to change is "no change", not "0 in".
+    change: c.amountMm === null || c.amountMm === 0 ? 'no change' : reader.fine(c.amountMm),
     changeMm: c.amountMm === null ? null : Math.round(c.amountMm * 10) / 10,
     // An interval whose ends read the same in the reader's unit says nothing more than the change.
     range: c.interval && reader.fine(c.interval[0]) !== reader.fine(c.interval[1]) ? `${reader.fine(c.interval[0])} to ${reader.fine(c.interval[1])}` : null,
