@@ -10,6 +10,8 @@ export type TrialDetail = {
   slug: string;
   title: string;
   state: 'draft' | 'open' | 'running' | 'closed';
+  releasedAt?: string | null;
+  copiedFromId?: string | null;
   callText: string;
   requirements: string;
   coverage: {

@@ -20,6 +20,7 @@ import { myReportsRouter } from './reports/reports.routes';
 import { invitationLinksRouter } from './invitations/invitations.routes';
 import { mailLinksRouter } from './outbox/outbox.routes';
 import { profileRouter } from './profile/profile.routes';
+import { calendarFeedRouter, myDataRouter } from './me/me.routes';
 import type { Storage } from './storage/storage';
 import { studiosRouter } from './studios/studios.routes';
 
@@ -52,6 +53,8 @@ function apiRouter(deps: RouteDeps): express.Router {
   api.use('/mail', mailLinksRouter(deps));
   api.use('/me', profileRouter());
   api.use('/me', myTrialsRouter(deps));
+  api.use('/me', myDataRouter(deps));
+  api.use('/calendar', calendarFeedRouter(deps));
   api.use('/calls', callsRouter(deps));
   api.use(draftLinksRouter(deps));
   api.use(photosRouter(deps));

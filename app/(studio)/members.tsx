@@ -5,6 +5,7 @@ import { Controller, useForm } from 'react-hook-form';
 import { StyleSheet, View } from 'react-native';
 import { applyApiError } from '@/components/forms/api-errors';
 import { EMAIL_INPUT, FormTextField } from '@/components/forms/form-text-field';
+import { CommunitySettingsCard } from '@/components/studio/community-settings-card';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ConfirmPanel } from '@/components/ui/confirm-panel';
@@ -136,6 +137,7 @@ export default function MembersScreen() {
   return (
     <Screen title="Members" intro="Who works in this studio and in which role. Testers see only their own trials and reports.">
       {studioId && can(role, 'invitations.create') ? <InviteForm studioId={studioId} isOwner={isOwner} /> : null}
+      {studioId && can(role, 'members.list') ? <CommunitySettingsCard studioId={studioId} canEdit={can(role, 'studio.update')} /> : null}
 
       <Card title="Open invitations">
         {invitations.error ? <LoadError error={invitations.error} onRetry={() => invitations.mutate()} /> : null}

@@ -2,6 +2,9 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { DraftFiles } from '@/components/drafts/drafts-panel';
+import { CalendarCard } from '@/components/my-trials/calendar-card';
+import { MyDataCard } from '@/components/my-trials/my-data-card';
+import { MyAnnouncements, ReleasedTrials } from '@/components/my-trials/released-trials';
 import { describeInstant } from '@/components/trials/dates';
 import { useTrialDrafts } from '@/hooks/use-drafts';
 import { Button } from '@/components/ui/button';
@@ -75,6 +78,8 @@ export default function MyTrialsScreen() {
       {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
       {!data && !error ? <Loading /> : null}
       {data && data.length === 0 ? <Empty>No trials yet. A studio’s call for testers has a link to apply.</Empty> : null}
+      <ReleasedTrials />
+      <MyAnnouncements />
       {data?.map((t) => (
         <Card key={t.applicationId} title={t.trial.title}>
           <AppText style={styles.status}>{`${t.enrollment?.status === 'finished' ? 'Finished: thank you for testing' : STATUS_WORDS[t.status]}${t.size ? ` · size ${t.size.label}` : ''} · ${t.trial.studioName}`}</AppText>
@@ -120,6 +125,8 @@ export default function MyTrialsScreen() {
           ) : null}
         </Card>
       ))}
+      <CalendarCard />
+      <MyDataCard />
     </Screen>
   );
 }

@@ -1,19 +1,10 @@
 // The words the findings screens use for the engine's codes: our own plain names. Kinds are named
 // by the engine's wording (server/analysis/wording.ts), so a reason and a heading read the same.
 import type { ComparisonStatus, Direction, FindingClass } from '@/server/analysis/types';
-import type { TriageState } from '@/hooks/use-findings';
 import { formatLength, type LengthUnit } from '@/server/domain/units';
 
 export { directionLabel, findingName, kindLabel } from '@/server/analysis/wording';
-
-export const CLASS_LABELS: Record<FindingClass, string> = {
-  'draft-wide': 'Whole draft',
-  grading: 'Grading',
-  'size-specific': 'One or a few sizes',
-  'personal-fit': 'Personal fit',
-  'too-few-reports': 'Too few to judge',
-  none: 'No pattern problem',
-};
+export { CLASS_LABELS, TRIAGE_LABELS } from '@/server/domain/finding-words';
 
 /** One line on what each class means for the next draft. */
 export const CLASS_HINTS: Record<FindingClass, string> = {
@@ -41,12 +32,6 @@ export const STATUS_LABELS: Record<ComparisonStatus, string> = {
   'personal-fit': 'Personal fit, nothing to fix',
 };
 
-export const TRIAGE_LABELS: Record<TriageState, string> = {
-  open: 'Open',
-  'will-fix': 'Will fix',
-  'personal-fit': 'Personal fit, no change',
-  fixed: 'Fixed in a draft',
-};
 
 export function findingKey(f: { kind: string; direction: Direction }): string {
   return `${f.kind}|${f.direction}`;

@@ -16,6 +16,7 @@ export const STUDIO_NAV: NavItem[] = [
   { href: '/trials', label: 'Trials', icon: 'clipboard-outline' },
   { href: '/patterns', label: 'Patterns', icon: 'cut-outline' },
   { href: '/findings', label: 'Findings', icon: 'analytics-outline' },
+  { href: '/testers', label: 'Testers', icon: 'people-circle-outline', action: 'applicants.manage' },
   { href: '/members', label: 'Members', icon: 'people-outline', action: 'members.list' },
 ];
 

@@ -14,6 +14,7 @@ import * as sessions from './0015-sessions-and-verified-addresses';
 import * as rateLimits from './0016-rate-limits';
 import * as objectDeletions from './0017-object-deletions';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
+import * as releaseAndCommunity from './0021-release-and-community';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -34,4 +35,5 @@ export const migrations: Migration[] = [
   { name: '0017-object-deletions', ...objectDeletions },
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
+  { name: '0021-release-and-community', ...releaseAndCommunity },
 ];

@@ -21,6 +21,9 @@ export class Enrollment extends Model<InferAttributes<Enrollment>, InferCreation
   declare variantId: string | null;
   declare status: CreationOptional<'active' | 'dropped' | 'finished'>;
   declare dueOverrides: CreationOptional<Record<string, string>>;
+  /** The studio let this tester off finishing (they count as done for the release). */
+  declare excusedAt: CreationOptional<Date | null>;
+  declare excuseNote: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare trial?: NonAttribute<Trial>;
@@ -33,6 +36,8 @@ export class Enrollment extends Model<InferAttributes<Enrollment>, InferCreation
         variantId: { type: DataTypes.UUID, allowNull: true },
         status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'active' },
         dueOverrides: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        excusedAt: { type: DataTypes.DATE, allowNull: true },
+        excuseNote: { type: DataTypes.STRING(500), allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,5 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import { Application } from './application';
+import { Announcement, AnnouncementRecipient, CalendarFeed, PoolInvitation, RewardCode } from './community';
 import { Draft, DraftDownload, DraftFile } from './draft';
 import { Enrollment } from './enrollment';
 import { FabricNeed } from './fabric-need';
@@ -23,6 +24,7 @@ import { User } from './user';
 export { FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping };
 export { OutboxMessage };
 export { RevokedSession, SignUpRequest };
+export { Announcement, AnnouncementRecipient, CalendarFeed, PoolInvitation, RewardCode };
 export { Report, Photo, Draft, DraftDownload, DraftFile, Application, Enrollment, FabricNeed, Invitation, Membership, Milestone, PasswordReset, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User };
 
 /** Registers every model, then wires the associations once all of them exist. */
@@ -53,6 +55,11 @@ export function initModels(sequelize: Sequelize): void {
   OtherAlterationMapping.initModel(sequelize);
   RevokedSession.initModel(sequelize);
   SignUpRequest.initModel(sequelize);
+  RewardCode.initModel(sequelize);
+  Announcement.initModel(sequelize);
+  AnnouncementRecipient.initModel(sequelize);
+  PoolInvitation.initModel(sequelize);
+  CalendarFeed.initModel(sequelize);
 
   Studio.hasMany(Membership, { as: 'memberships', foreignKey: 'studioId' });
   Membership.belongsTo(Studio, { as: 'studio', foreignKey: 'studioId' });
@@ -103,4 +110,13 @@ export function initModels(sequelize: Sequelize): void {
   OtherAlterationMapping.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
   OutboxMessage.belongsTo(User, { as: 'recipient', foreignKey: 'recipientId' });
   OtherAlterationMapping.belongsTo(User, { as: 'mappedBy', foreignKey: 'mappedById' });
+  Trial.hasMany(RewardCode, { as: 'rewardCodes', foreignKey: 'trialId' });
+  RewardCode.belongsTo(Enrollment, { as: 'enrollment', foreignKey: 'enrollmentId' });
+  Trial.hasMany(Announcement, { as: 'announcements', foreignKey: 'trialId' });
+  Announcement.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  Announcement.belongsTo(User, { as: 'author', foreignKey: 'authorId' });
+  Announcement.hasMany(AnnouncementRecipient, { as: 'recipients', foreignKey: 'announcementId' });
+  PoolInvitation.belongsTo(Trial, { as: 'trial', foreignKey: 'trialId' });
+  PoolInvitation.belongsTo(User, { as: 'user', foreignKey: 'userId' });
+  CalendarFeed.belongsTo(User, { as: 'user', foreignKey: 'userId' });
 }

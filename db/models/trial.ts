@@ -29,6 +29,13 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
   declare requirements: CreationOptional<string>;
   declare state: CreationOptional<TrialState>;
   declare coverage: CreationOptional<StoredCoverage>;
+  declare releasedAt: CreationOptional<Date | null>;
+  declare releasedById: CreationOptional<string | null>;
+  declare finalDraftId: CreationOptional<string | null>;
+  declare coverageGapNote: CreationOptional<string | null>;
+  declare releaseOpenItems: CreationOptional<{ key: string; title: string; detail: string }[] | null>;
+  declare copiedFromId: CreationOptional<string | null>;
+  declare photosRemovedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare milestones?: NonAttribute<Milestone[]>;
@@ -45,6 +52,13 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
         requirements: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         state: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'draft' },
         coverage: { type: DataTypes.JSONB, allowNull: false, defaultValue: { sizes: [], heightBands: [], variants: [] } },
+        releasedAt: { type: DataTypes.DATE, allowNull: true },
+        releasedById: { type: DataTypes.UUID, allowNull: true },
+        finalDraftId: { type: DataTypes.UUID, allowNull: true },
+        coverageGapNote: { type: DataTypes.STRING(2000), allowNull: true },
+        releaseOpenItems: { type: DataTypes.JSONB, allowNull: true },
+        copiedFromId: { type: DataTypes.UUID, allowNull: true },
+        photosRemovedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

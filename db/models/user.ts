@@ -23,6 +23,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare mailReminders: CreationOptional<boolean>;
   declare mailTrialNews: CreationOptional<boolean>;
   declare mailDigest: CreationOptional<boolean>;
+  /** Set when the person deleted their account: the row stays, without anything that names them. */
+  declare deletedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare memberships?: NonAttribute<Membership[]>;
@@ -43,6 +45,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         mailReminders: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         mailTrialNews: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         mailDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        deletedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

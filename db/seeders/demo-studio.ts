@@ -8,6 +8,7 @@ import { proposeSelection } from '../../server/domain/coverage';
 import type { MeasurementKey } from '../../server/domain/measurements';
 import { adviseSize } from '../../server/domain/size-advice';
 import { Application, Enrollment, FabricNeed, Membership, Milestone, Pattern, PatternSize, PatternVariant, Studio, TesterProfile, Trial, User } from '../models';
+import { seedDemoReleasedTrial } from './demo-release';
 import { seedDemoReports } from './demo-reports';
 
 dayjs.extend(utc);
@@ -232,4 +233,5 @@ export async function seedDemoStudio(sequelize: Sequelize, bcryptCost = 10): Pro
     await seedDemoTrial(studio, passwordHash, transaction);
   });
   await seedDemoReports(sequelize);
+  await seedDemoReleasedTrial(sequelize);
 }

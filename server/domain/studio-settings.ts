@@ -47,6 +47,12 @@ export function mergeAnalysisSettings(stored: unknown, patch: z.output<typeof an
 }
 
 /**
+ * How long testers' photos stay after a release unless the studio says otherwise: a year lets the
+ * designer use allowed photos around the launch, and no photo is kept for ever by default.
+ */
+export const DEFAULT_PHOTO_RETENTION_DAYS = 365;
+
+/**
  * Studio-wide thresholds with their defaults. Stored per studio as JSON; a key the studio never
  * set takes the default here, so adding a setting needs no migration.
  */
@@ -55,6 +61,10 @@ export const studioSettingsSchema = z.object({
   fullerBellyMarginMm: z.number().min(0).max(200).default(25.4),
   /** The findings' thresholds the studio changed; the rest follow DEFAULT_THRESHOLDS. */
   analysis: analysisSettingsSchema.default({}),
+  /** Where testers' answers to the studio's messages go (Reply-To); mail itself comes from Basted. */
+  contactEmail: z.string().nullable().default(null),
+  /** Days testers' photos are kept after a trial is released; null keeps them until removed by hand. */
+  photoRetentionDays: z.number().int().min(0).max(3650).nullable().default(DEFAULT_PHOTO_RETENTION_DAYS),
 });
 export type StudioSettings = z.output<typeof studioSettingsSchema>;
 

@@ -14,7 +14,7 @@ import {
   type Trial,
   User,
 } from '../../db/models';
-import Papa from 'papaparse';
+import { toCsv } from '../csv';
 import { AnalysisRequestError, changeTable, findingName, listDrafts, readerFor, renderOutput, runAnalysis, type AnalysisInput } from '../analysis';
 import type { AnalysisOutput, ChangeRow } from '../analysis/types';
 import { ALTERATION_KINDS, alterationKindsFor } from '../domain/alterations';
@@ -251,7 +251,7 @@ export async function changesCsv(trial: Trial, draftAsked: string | undefined, u
   }));
   const fields = ['draft', 'finding', 'class', 'size', 'change', 'from', 'to', 'change_mm', 'from_mm', 'to_mm', 'basis', 'extrapolated', 'note'];
   // A tester's own words can name an "other" alteration: never let a cell start a formula.
-  return Papa.unparse({ fields, data: rows.map((r) => fields.map((f) => r[f as keyof typeof r])) }, { newline: '\r\n', escapeFormulae: true });
+  return toCsv({ fields, data: rows.map((r) => fields.map((f) => r[f as keyof typeof r])) });
 }
 
 /** Sets the studio's decision on a finding; returns its triage and notes. */

@@ -5,6 +5,7 @@ import type { OutboxDeps } from '../outbox/outbox.service';
 import { purgeDeletions } from '../storage/object-deletions';
 import type { Storage } from '../storage/storage';
 import { flushOutbox } from '../outbox/outbox.service';
+import { sweepPhotoRetention } from './photo-retention';
 import { runMailTick } from './tick';
 
 // Any fixed number, the same for every Basted process (the migrations use another).
@@ -13,6 +14,7 @@ const JOB_SETUP_LOCK = 4_227_302;
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
 export const MAIL_TICK_QUEUE = 'mail-tick';
 export const OUTBOX_FLUSH_QUEUE = 'outbox-flush';
+export const PHOTO_RETENTION_QUEUE = 'photo-retention';
 
 export type JobQueue = {
   boss: PgBoss;
@@ -25,6 +27,8 @@ export type JobQueueOptions = {
   tickCron?: string;
   /** Cron for retries of failed sends. */
   flushCron?: string;
+  /** Cron for removing photos past the studio's keeping period (daily, at night). */
+  retentionCron?: string;
   /** Set false in tests that drive the clock themselves. */
   schedule?: boolean;
   /** Log each tick that did something (on by default). */
@@ -48,9 +52,11 @@ export async function startJobQueue(deps: OutboxDeps & { storage?: Storage; sequ
     await boss.start();
     await boss.createQueue(MAIL_TICK_QUEUE, { name: MAIL_TICK_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
     await boss.createQueue(OUTBOX_FLUSH_QUEUE, { name: OUTBOX_FLUSH_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 30, expireInSeconds: 600 });
+    await boss.createQueue(PHOTO_RETENTION_QUEUE, { name: PHOTO_RETENTION_QUEUE, policy: 'singleton', retryLimit: 2, retryDelay: 300, expireInSeconds: 3600 });
     if (options.schedule !== false) {
       await boss.schedule(MAIL_TICK_QUEUE, options.tickCron ?? '*/5 * * * *');
       await boss.schedule(OUTBOX_FLUSH_QUEUE, options.flushCron ?? '* * * * *');
+      if (deps.storage) await boss.schedule(PHOTO_RETENTION_QUEUE, options.retentionCron ?? '17 3 * * *');
     }
   } finally {
     // Ending the session releases the lock even if the unlock itself fails.
@@ -66,6 +72,13 @@ export async function startJobQueue(deps: OutboxDeps & { storage?: Storage; sequ
     // Stored objects whose rows are gone, left over while the file store was down.
     if (deps.storage && deps.sequelize) await purgeDeletions(deps.sequelize, deps.storage);
   });
+  const storage = deps.storage;
+  if (storage) {
+    await boss.work(PHOTO_RETENTION_QUEUE, async () => {
+      const result = await sweepPhotoRetention(storage, new Date());
+      if (options.log !== false && (result.photos || result.failed)) console.log('[jobs] photo retention', JSON.stringify(result));
+    });
+  }
   return {
     boss,
     async stop() {

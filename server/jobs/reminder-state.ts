@@ -31,6 +31,7 @@ export async function reminderObsolete(row: { enrollmentId: string | null; miles
     return 'the tester has submitted it';
   }
   if (enrollment.status !== 'active') return 'the tester is no longer active in the trial';
+  if (enrollment.excusedAt) return 'the studio excused the tester';
   if (!(REMINDING_TRIAL_STATES as readonly string[]).includes(enrollment.trial.state)) return 'the trial is closed';
   const due = dueFor(enrollment, enrollment.trial.milestones ?? [], kind);
   if (!due || !row.dueAt || due.getTime() !== row.dueAt.getTime()) return 'the due date has changed';

@@ -25,7 +25,7 @@ function layout(paragraphs: string[], action: { label: string; url: string }, fo
 }
 
 /** Plain text and HTML from the same parts, so the two never say different things. */
-function compose(subject: string, lines: string[], action: { label: string; url: string }, footer: string, optOut?: OptOut): MailContent {
+export function compose(subject: string, lines: string[], action: { label: string; url: string }, footer: string, optOut?: OptOut): MailContent {
   const stop = optOut ? `\n\nStop ${optOut.what}: ${optOut.url}` : '';
   return { subject, text: `${lines.join('\n\n')}\n\n${action.url}\n\n${footer}${stop}\n`, html: layout(lines, action, footer, optOut) };
 }

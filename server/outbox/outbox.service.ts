@@ -35,6 +35,8 @@ export type NewMessage = {
   dueAt?: Date | null;
   /** The content holds a secret link (reset, invitation): one attempt, then the content is erased. */
   secret?: boolean;
+  /** Extra mail headers, e.g. Reply-To: the studio's own address for a message people may answer. */
+  headers?: Record<string, string>;
 };
 
 /**
@@ -67,7 +69,10 @@ export async function enqueue(
   const off = await preferenceOff(message.to.id, message.category, options.transaction);
   const optOut = optOutFor(deps.config, message.to.id, message.category);
   // RFC 8058 one-click unsubscribe headers, so mail programs can offer the same opt-out.
-  const headers: Record<string, string> = optOut ? { 'List-Unsubscribe': `<${optOut.url}>`, 'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click' } : {};
+  const headers: Record<string, string> = {
+    ...(message.headers ?? {}),
+    ...(optOut ? { 'List-Unsubscribe': `<${optOut.url}>`, 'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click' } : {}),
+  };
   const [rows] = await OutboxMessage.sequelize!.query(
     `INSERT INTO outbox_messages (id, idempotency_key, recipient_id, recipient_email, template, category, studio_id, trial_id,
        enrollment_id, milestone_kind, due_at, subject, text, html, headers, secret, status, attempts, next_attempt_at,

@@ -6,6 +6,7 @@ import { invitationsRouter } from '../invitations/invitations.routes';
 import { membersRouter } from '../members/members.routes';
 import { patternsRouter } from '../patterns/patterns.routes';
 import { trialsRouter } from '../trials/trials.routes';
+import { poolRouter } from '../community/pool.routes';
 import { removeMember } from '../members/members.service';
 import { validate } from '../middleware/validate';
 import { serializeStudio } from '../serializers';
@@ -52,5 +53,6 @@ export function studiosRouter(deps: RouteDeps): Router {
   router.use('/:studioId/invitations', invitationsRouter(deps));
   router.use('/:studioId/patterns', patternsRouter(deps));
   router.use('/:studioId/trials', trialsRouter(deps));
+  router.use('/:studioId/pool', poolRouter(deps));
   return router;
 }

@@ -11,6 +11,8 @@ export function serializeTrial(trial: Trial) {
     callText: trial.callText,
     requirements: trial.requirements,
     coverage: trial.coverage,
+    releasedAt: trial.releasedAt ?? null,
+    copiedFromId: trial.copiedFromId ?? null,
     pattern: pattern
       ? {
           id: pattern.id,

@@ -11,6 +11,8 @@ import { findingsRouter } from '../findings/findings.routes';
 import { trialReportsRouter } from '../reports/reports.routes';
 import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { trialMailRouter } from '../outbox/outbox.routes';
+import { sendPendingPoolInvitations } from '../community/pool.service';
+import { trialReleaseRouter } from '../release/release.routes';
 import { sendDecisionMail } from './trial-mail';
 import { serializeApplication, serializeTrial } from './trial-serializer';
 import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
@@ -38,6 +40,8 @@ export function trialsRouter(deps: AppDeps): Router {
     const updated = await updateTrial(studioId(res), trialId(req), res.locals.body);
     // New dates (or a closed trial) cancel reminders queued for the old ones.
     await cancelObsoleteReminders({ trialId: updated.id });
+    // Invitations from the tester pool that waited for this call to open go out now.
+    if (updated.state === 'open') await sendPendingPoolInvitations(updated, deps);
     res.json(serializeTrial(updated));
   });
 
@@ -87,6 +91,7 @@ export function trialsRouter(deps: AppDeps): Router {
   router.use('/:trialId/mail', trialMailRouter(deps));
 
   router.use('/:trialId', findingsRouter());
+  router.use('/:trialId', trialReleaseRouter(deps));
 
   // More time for one tester: a per-milestone date that replaces the trial's for them alone.
   router.patch(

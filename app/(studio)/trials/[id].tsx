@@ -2,6 +2,8 @@ import { useLocalSearchParams } from 'expo-router';
 import { FindingsSummary } from '@/components/findings/findings-summary';
 import { OutboxPanel } from '@/components/mail/outbox-panel';
 import { PhotoWall } from '@/components/photos/photo-wall';
+import { AnnouncementsPanel } from '@/components/release/announcements-panel';
+import { ReleasePanel } from '@/components/release/release-panel';
 import { ApplicantsPanel } from '@/components/trials/applicants-panel';
 import { CallEditor } from '@/components/trials/call-editor';
 import { TargetsEditor } from '@/components/trials/targets-editor';
@@ -33,6 +35,7 @@ export default function TrialScreen() {
   return (
     <Screen title={trial.title} intro={`${TRIAL_STATE_LABELS[trial.state]} · ${trial.pattern?.name ?? ''}`}>
       {trial.state !== 'draft' ? <ButtonLink href={{ pathname: '/call/[slug]', params: { slug: trial.slug } }} label="Open the public call" tone="quiet" /> : null}
+      <ReleasePanel studioId={currentStudio.id} trialId={trial.id} />
       <CallEditor key={`call-${trial.id}`} studioId={currentStudio.id} trial={trial} timeZone={currentStudio.timeZone} canEdit={canEdit} />
       <TargetsEditor key={`targets-${trial.id}`} studioId={currentStudio.id} trial={trial} unit={session.user.lengthUnit} canEdit={canEdit} />
       {can(currentStudio.role, 'applicants.manage') ? <ApplicantsPanel studioId={currentStudio.id} trialId={trial.id} unit={session.user.lengthUnit} /> : null}
@@ -40,6 +43,7 @@ export default function TrialScreen() {
       <PhotoWall studioId={currentStudio.id} trialId={trial.id} />
       <FindingsSummary studioId={currentStudio.id} trialId={trial.id} role={currentStudio.role} lengthUnit={session.user.lengthUnit} />
       {can(currentStudio.role, 'applicants.manage') ? <TestersPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
+      <AnnouncementsPanel studioId={currentStudio.id} trialId={trial.id} sizes={trial.pattern?.sizes ?? []} canSend={canEdit} />
       {can(currentStudio.role, 'applicants.manage') ? <OutboxPanel studioId={currentStudio.id} trialId={trial.id} timeZone={currentStudio.timeZone} /> : null}
     </Screen>
   );

@@ -28,6 +28,15 @@ export const updateStudioSchema = z.object({
       fullerBellyMarginMm: z.number({ error: 'must be a length in millimetres' }).min(0, 'must not be negative').max(200, 'must be at most 20 cm'),
       /** Thresholds of the findings; null puts one back to its default. */
       analysis: analysisSettingsPatchSchema,
+      /** The studio's own address for replies to its messages; null removes it. */
+      contactEmail: emailSchema.nullable(),
+      /** Days photos are kept after a release; null keeps them until removed by hand. */
+      photoRetentionDays: z
+        .number({ error: 'must be a number of days' })
+        .int('must be a whole number of days')
+        .min(0, 'must not be negative')
+        .max(3650, 'must be at most 3650 days (ten years)')
+        .nullable(),
     })
     .partial()
     .optional(),

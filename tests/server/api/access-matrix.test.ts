@@ -269,6 +269,59 @@ const MATRIX: Record<string, Row> = {
   // The signed link is the credential: anyone may open it; a bad one gets a 400 (tested in outbox.test.ts).
   'GET /api/mail/opt-out/:token': { allow: EVERYONE, call: () => ({ path: '/api/mail/opt-out/not-a-signed-token' }) },
   'POST /api/mail/opt-out/:token': { allow: EVERYONE, call: () => ({ path: '/api/mail/opt-out/not-a-signed-token' }) },
+  // Closing a trial: the summary and checklist for all staff; changing and releasing for those who run trials.
+  'GET /api/studios/:studioId/trials/:trialId/summary': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/summary` }) },
+  'GET /api/studios/:studioId/trials/:trialId/summary.pdf': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/summary.pdf` }) },
+  'GET /api/studios/:studioId/trials/:trialId/summary/:table.csv': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/summary/findings.csv` }) },
+  'GET /api/studios/:studioId/trials/:trialId/release': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/release` }) },
+  'PATCH /api/studios/:studioId/trials/:trialId/release': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/release`, body: { coverageGapNote: 'Size M is enough.' } }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/release': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/release`, body: { confirmOpenItems: ['findings-triaged', 'will-fix-drafted', 'coverage', 'testers-done', 'final-draft'] } }),
+  },
+  'PATCH /api/studios/:studioId/trials/:trialId/enrollments/:enrollmentId/excuse': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/enrollments/${c.enrollmentId}/excuse`, body: { excused: true } }),
+  },
+  'GET /api/studios/:studioId/trials/:trialId/reward-codes': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reward-codes` }) },
+  'POST /api/studios/:studioId/trials/:trialId/reward-codes': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reward-codes`, body: { csv: 'MATRIX-1' } }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/reward-codes/send': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/reward-codes/send` }) },
+  'GET /api/studios/:studioId/trials/:trialId/announcements': { allow: STAFF, call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/announcements` }) },
+  'POST /api/studios/:studioId/trials/:trialId/announcements': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/announcements`, body: { subject: 'Hello testers', body: 'News.', statuses: ['active'] } }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/copy': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/trials/${c.trialId}/copy`, body: { title: 'Second round', shiftDays: 60 } }),
+  },
+  // The pool draws on applications: the staff who choose testers.
+  'GET /api/studios/:studioId/pool': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/pool` }) },
+  'GET /api/studios/:studioId/pool/calls': { allow: MANAGERS, call: (c) => ({ path: `/api/studios/${c.studio.id}/pool/calls` }) },
+  'POST /api/studios/:studioId/pool/invitations': {
+    allow: MANAGERS,
+    call: (c) => ({ path: `/api/studios/${c.studio.id}/pool/invitations`, body: { trialId: c.trialId, userIds: [c.users.otherTester.id] } }),
+  },
+  // A person's own things: everyone signed in has them (empty when there is nothing).
+  'GET /api/me/announcements': { allow: SIGNED_IN, call: () => ({ path: '/api/me/announcements' }) },
+  'GET /api/me/releases': { allow: SIGNED_IN, call: () => ({ path: '/api/me/releases' }) },
+  // Only finishers of a released trial whose final draft holds the file; nobody here finished one.
+  'POST /api/me/final-files/:fileId/link': { allow: [], hidden: true, call: (c) => ({ path: `/api/me/final-files/${c.draftFileId}/link` }) },
+  'GET /api/me/calendar': { allow: SIGNED_IN, call: () => ({ path: '/api/me/calendar' }) },
+  'POST /api/me/calendar/feed': { allow: SIGNED_IN, call: () => ({ path: '/api/me/calendar/feed' }) },
+  'DELETE /api/me/calendar/feed': { allow: SIGNED_IN, call: () => ({ path: '/api/me/calendar/feed' }) },
+  'GET /api/me/calendar.ics': { allow: SIGNED_IN, call: () => ({ path: '/api/me/calendar.ics' }) },
+  'GET /api/me/export.zip': { allow: SIGNED_IN, call: () => ({ path: '/api/me/export.zip' }) },
+  // One's own account; the studio's only owner is refused with 409 (not an access refusal).
+  'DELETE /api/me/account': { allow: SIGNED_IN, call: () => ({ path: '/api/me/account', body: { password: TEST_PASSWORD, confirm: 'delete' } }) },
+  // The feed address is the credential; a malformed one gets a 400 (tested in me-data.test.ts).
+  'GET /api/calendar/:token': { allow: EVERYONE, call: () => ({ path: '/api/calendar/not-a-feed.ics' }) },
 };
 
 function userOf(world: StudioWorld, persona: Persona) {

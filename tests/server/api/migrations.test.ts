@@ -86,6 +86,45 @@ describe('migrations', () => {
     });
   });
 
+  it('0021 adds the release columns and the community tables (nothing released for trials already there), and its down removes exactly those', async () => {
+    await withScratchDatabase(async (sequelize) => {
+      const at = migrations.findIndex((m) => m.name === '0021-release-and-community');
+      expect(at).toBeGreaterThan(0);
+      const migrator = createMigrator(sequelize);
+      await migrator.up({ to: migrations[at - 1].name });
+      await sequelize.query(
+        "INSERT INTO studios (id, name, slug, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000011', 'Old Studio', 'old-studio', now(), now()); " +
+          "INSERT INTO patterns (id, studio_id, name, category, fabric_kind, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000012', '00000000-0000-4000-8000-000000000011', 'Skirt', 'skirt', 'woven', now(), now()); " +
+          "INSERT INTO trials (id, studio_id, pattern_id, slug, title, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000013', '00000000-0000-4000-8000-000000000011', '00000000-0000-4000-8000-000000000012', 'old-trial', 'Old trial', now(), now())",
+      );
+      const columns = async (table: string) =>
+        (
+          await sequelize.query<{ name: string }>(`SELECT column_name::text AS name FROM information_schema.columns WHERE table_name = '${table}' ORDER BY 1`, { type: QueryTypes.SELECT })
+        ).map((r) => r.name);
+      const before = { trials: await columns('trials'), enrollments: await columns('enrollments'), users: await columns('users'), tables: await tables(sequelize) };
+
+      await migrator.up({ to: '0021-release-and-community' });
+      expect(await columns('trials')).toEqual(
+        [...before.trials, 'released_at', 'released_by_id', 'final_draft_id', 'coverage_gap_note', 'release_open_items', 'copied_from_id', 'photos_removed_at'].sort(),
+      );
+      expect(await columns('enrollments')).toEqual([...before.enrollments, 'excused_at', 'excuse_note'].sort());
+      expect(await columns('users')).toEqual([...before.users, 'deleted_at'].sort());
+      expect(await tables(sequelize)).toEqual([...before.tables, 'announcement_recipients', 'announcements', 'calendar_feeds', 'pool_invitations', 'reward_codes'].sort());
+      const [old] = await sequelize.query<{ released_at: Date | null }>('SELECT released_at FROM trials', { type: QueryTypes.SELECT });
+      expect(old.released_at).toBeNull();
+      // One code per finisher is the database's own rule.
+      await sequelize.query("INSERT INTO reward_codes (id, trial_id, code, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000021', '00000000-0000-4000-8000-000000000013', 'A', now(), now())");
+      await expect(
+        sequelize.query("INSERT INTO reward_codes (id, trial_id, code, created_at, updated_at) VALUES ('00000000-0000-4000-8000-000000000022', '00000000-0000-4000-8000-000000000013', 'A', now(), now())"),
+      ).rejects.toMatchObject({ name: 'SequelizeUniqueConstraintError', parent: { constraint: 'reward_codes_trial_code' } });
+
+      await migrator.down({ to: '0021-release-and-community' });
+      expect({ trials: await columns('trials'), enrollments: await columns('enrollments'), users: await columns('users'), tables: await tables(sequelize) }).toEqual(before);
+      const [count] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM trials', { type: QueryTypes.SELECT });
+      expect(Number(count.n)).toBe(1);
+    });
+  });
+
   it('when two processes migrate at once, each migration runs exactly once', async () => {
     await withScratchDatabase(async (sequelize) => {
       const other = createSequelize(urlOf(sequelize));
@@ -127,9 +166,11 @@ describe('migrations', () => {
       expect(Number(counts.users)).toBe(DEMO_ACCOUNTS.length + 40); // and forty invented applicants
       expect(Number(counts.studios)).toBe(1);
       expect(Number(counts.memberships)).toBeGreaterThanOrEqual(DEMO_ACCOUNTS.length);
-      expect(Number(counts.patterns)).toBe(1);
-      expect(Number(counts.sizes)).toBe(11);
-      expect(Number(counts.applications)).toBe(40);
+      // The trousers and the earlier, released top, each in sizes 0–20.
+      expect(Number(counts.patterns)).toBe(2);
+      expect(Number(counts.sizes)).toBe(22);
+      // Forty for the trousers, twenty-two for the top (returning testers: no new accounts).
+      expect(Number(counts.applications)).toBe(62);
     });
   });
 });

@@ -175,7 +175,7 @@ describe('studio settings', () => {
     const path = `/api/studios/${w.studio.id}`;
     const auth = { Authorization: bearer(w.users.owner, t.config) };
     // Default 1 in = 25.4 mm (common practice, see server/domain/studio-settings.ts).
-    expect((await request(t.app).get(path).set(auth)).body.settings).toEqual({ fullerBellyMarginMm: 25.4, analysis: {} });
+    expect((await request(t.app).get(path).set(auth)).body.settings).toEqual({ fullerBellyMarginMm: 25.4, analysis: {}, contactEmail: null, photoRetentionDays: 365 });
     const set = await request(t.app).patch(path).set(auth).send({ settings: { fullerBellyMarginMm: 38.1 } });
     expect(set.status).toBe(200);
     expect(set.body.settings.fullerBellyMarginMm).toBe(38.1);
