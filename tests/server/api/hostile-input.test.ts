@@ -201,6 +201,49 @@ const ROUTES: Record<string, Route> = {
     path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/triage`,
     body: () => ({ kind: 'back-rise', direction: 'add', state: 'fixed', fixedInDraft: 2 }),
   },
+  'PATCH /api/studios/:studioId/trials/:trialId/release': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/release`,
+    body: () => ({ finalDraftId: null, coverageGapNote: 'Size 20 had no tester; accepted.' }),
+  },
+  // Releasing closes the trial for the routes after it.
+  'POST /api/studios/:studioId/trials/:trialId/release': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/release`,
+    body: () => ({ confirmOpenItems: ['findings-triaged'] }),
+    last: true,
+  },
+  'PATCH /api/studios/:studioId/trials/:trialId/enrollments/:enrollmentId/excuse': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/enrollments/${c.enrollmentId}/excuse`,
+    body: () => ({ excused: false, note: null }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/reward-codes': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/reward-codes`,
+    body: () => ({ csv: 'code\nTHANKS-0001\n' }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/reward-codes/send': { as: 'owner', path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/reward-codes/send` },
+  'POST /api/studios/:studioId/trials/:trialId/announcements': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/announcements`,
+    body: (c) => ({ subject: 'Draft 2 is out', body: 'Please download draft 2.', statuses: ['active'], sizeIds: [c.sizeId] }),
+  },
+  'POST /api/studios/:studioId/trials/:trialId/copy': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/copy`,
+    body: () => ({ title: 'Second round', shiftDays: 42, inviteFinishers: false }),
+  },
+  'POST /api/studios/:studioId/pool/invitations': {
+    as: 'owner',
+    path: (c) => `/api/studios/${c.studio.id}/pool/invitations`,
+    body: (c) => ({ trialId: c.trialId, userIds: [c.tester.id] }),
+  },
+  'POST /api/me/final-files/:fileId/link': { as: 'tester', path: (c) => `/api/me/final-files/${c.draftFileId}/link` },
+  'POST /api/me/calendar/feed': { as: 'tester', path: () => '/api/me/calendar/feed' },
+  'DELETE /api/me/calendar/feed': { as: 'tester', path: () => '/api/me/calendar/feed' },
+  // A wrong password: every case is refused, so the tester's account stays for the other routes.
+  'DELETE /api/me/account': { as: 'tester', path: () => '/api/me/account', body: () => ({ password: 'not the password', confirm: 'delete' }) },
   'POST /api/studios/:studioId/trials/:trialId/findings/notes': {
     as: 'owner',
     path: (c) => `/api/studios/${c.studio.id}/trials/${c.trialId}/findings/notes`,
