@@ -10,6 +10,8 @@ import * as reports from './0007-reports';
 import * as findings from './0008-findings';
 import * as mailOutbox from './0009-mail-outbox';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
+import * as findingsRevision from './0030-findings-revision';
+import * as readIndexes from './0031-read-indexes';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -26,4 +28,7 @@ export const migrations: Migration[] = [
   { name: '0009-mail-outbox', ...mailOutbox },
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
+  // 0030–0034: performance (the findings revision, read indexes).
+  { name: '0030-findings-revision', ...findingsRevision },
+  { name: '0031-read-indexes', ...readIndexes },
 ];

@@ -29,6 +29,12 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
   declare requirements: CreationOptional<string>;
   declare state: CreationOptional<TrialState>;
   declare coverage: CreationOptional<StoredCoverage>;
+  /** Bumped by the database on every write the findings depend on (see migration 0030). */
+  declare findingsRevision: CreationOptional<string>;
+  /** The revision the stored findings were computed from; fresh while it equals findingsRevision. */
+  declare findingsComputedRevision: CreationOptional<string>;
+  declare findingsConfigHash: CreationOptional<string | null>;
+  declare findingsComputedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare milestones?: NonAttribute<Milestone[]>;
@@ -45,6 +51,11 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
         requirements: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         state: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'draft' },
         coverage: { type: DataTypes.JSONB, allowNull: false, defaultValue: { sizes: [], heightBands: [], variants: [] } },
+        // BIGINT comes back from pg as a string; compared as strings, never written by the app.
+        findingsRevision: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 1 },
+        findingsComputedRevision: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 0 },
+        findingsConfigHash: { type: DataTypes.STRING(64), allowNull: true },
+        findingsComputedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,6 +1,7 @@
 import PgBoss from 'pg-boss';
 import type { OutboxDeps } from '../outbox/outbox.service';
 import { flushOutbox } from '../outbox/outbox.service';
+import { startFindingsWorker, stopFindingsWorker } from '../findings/findings-jobs';
 import { runMailTick } from './tick';
 
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
@@ -46,9 +47,12 @@ export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions):
   await boss.work(OUTBOX_FLUSH_QUEUE, async () => {
     await flushOutbox(deps, new Date());
   });
+  // Findings are recomputed here, debounced per trial, rather than inside a tester's submission.
+  await startFindingsWorker(boss);
   return {
     boss,
     async stop() {
+      stopFindingsWorker();
       await boss.stop({ graceful: true, timeout: 8_000 });
     },
   };

@@ -4,7 +4,7 @@ import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { reportCompleteSchema, type ReportDraft, type reportDraftSchema } from '../domain/schemas/reports';
 import { badRequest, conflict, notFound, notYours } from '../errors';
-import { refreshFindingsQuietly } from '../findings/findings.service';
+import { scheduleFindingsRefresh } from '../findings/findings-jobs';
 import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { formatDue } from '../trials/trial-mail';
 
@@ -75,7 +75,7 @@ export async function saveReport(enrollmentId: string, stage: Stage, user: User,
   const [report] = await Report.findOrCreate({ where: { enrollmentId, stage }, defaults: { enrollmentId, stage } });
   await report.update({ content: { ...report.content, ...input } as ReportDraft });
   // A submitted report changed after the fact: the findings follow it.
-  if (report.submittedAt) await refreshFindingsQuietly(enrollment.trial);
+  if (report.submittedAt) await scheduleFindingsRefresh(enrollment.trialId);
   return report;
 }
 
@@ -93,7 +93,7 @@ export async function submitReport(enrollmentId: string, stage: Stage, user: Use
   if (!report!.submittedAt) await report!.update({ submittedAt: new Date() });
   if (stage === 'final' && enrollment.status === 'active') await enrollment.update({ status: 'finished' });
   await cancelObsoleteReminders({ enrollmentId: enrollment.id });
-  await refreshFindingsQuietly(enrollment.trial);
+  await scheduleFindingsRefresh(enrollment.trialId);
   return report!;
 }
 
