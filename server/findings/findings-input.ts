@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { FabricNeed, OtherAlterationMapping, PatternSize, Trial } from '../../db/models';
 import type { AnalysisInput } from '../analysis';
 import { ALTERATION_KINDS } from '../domain/alterations';
@@ -7,8 +7,8 @@ import { otherTextKey } from '../domain/schemas/findings';
 const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement]));
 
 /** How a coordinator read each "other" alteration of a trial: its words (as otherTextKey) → kind. */
-export async function otherMappingsOf(trialId: string): Promise<Map<string, string>> {
-  return new Map((await OtherAlterationMapping.findAll({ where: { trialId }, attributes: ['textKey', 'kind'] })).map((m) => [m.textKey, m.kind]));
+export async function otherMappingsOf(trialId: string, transaction?: Transaction): Promise<Map<string, string>> {
+  return new Map((await OtherAlterationMapping.findAll({ where: { trialId }, attributes: ['textKey', 'kind'], transaction })).map((m) => [m.textKey, m.kind]));
 }
 
 type ReportLike = { submittedAt: Date | null; stage: 'check-in' | 'final'; content: { draftVersion?: number | null } };
@@ -49,7 +49,7 @@ type Row = {
  * needs, in one query (no model instances): enrolment, size, stage, the measurements copied into
  * the application, and the report's draft, alterations, fit, fabric and unclear steps.
  */
-async function submittedRows(trialId: string): Promise<Row[]> {
+async function submittedRows(trialId: string, transaction?: Transaction): Promise<Row[]> {
   return Trial.sequelize!.query<Row>(
     `SELECT e.id AS enrollment_id, e.size_id, r.stage,
             a.profile_snapshot -> 'measurementsMm' AS body,
@@ -63,7 +63,7 @@ async function submittedRows(trialId: string): Promise<Row[]> {
        LEFT JOIN applications a ON a.id = e.application_id
       WHERE e.trial_id = $1
       ORDER BY e.created_at, e.id, r.created_at, r.id`,
-    { bind: [trialId], type: QueryTypes.SELECT },
+    { bind: [trialId], type: QueryTypes.SELECT, transaction },
   );
 }
 
@@ -73,13 +73,12 @@ async function submittedRows(trialId: string): Promise<Row[]> {
  * own difference from the chart (from the measurements copied into their application), so
  * personal fit can be told apart from a pattern problem.
  */
-export async function analysisInputFor(trial: Pick<Trial, 'id' | 'patternId'>): Promise<AnalysisInput> {
-  const [sizes, rows, mapped, needs] = await Promise.all([
-    PatternSize.findAll({ where: { patternId: trial.patternId }, attributes: ['id', 'label', 'bodyMm'], order: [['position', 'ASC']] }),
-    submittedRows(trial.id),
-    otherMappingsOf(trial.id),
-    FabricNeed.findAll({ where: { patternId: trial.patternId }, attributes: ['sizeId', 'widthMm', 'lengthMm', 'napped'] }),
-  ]);
+export async function analysisInputFor(trial: Pick<Trial, 'id' | 'patternId'>, transaction?: Transaction): Promise<AnalysisInput> {
+  // One after another: inside a transaction they share its one connection.
+  const sizes = await PatternSize.findAll({ where: { patternId: trial.patternId }, attributes: ['id', 'label', 'bodyMm'], order: [['position', 'ASC']], transaction });
+  const rows = await submittedRows(trial.id, transaction);
+  const mapped = await otherMappingsOf(trial.id, transaction);
+  const needs = await FabricNeed.findAll({ where: { patternId: trial.patternId }, attributes: ['sizeId', 'widthMm', 'lengthMm', 'napped'], transaction });
   const sizeById = new Map(sizes.map((s) => [s.id, s]));
   const kindOf = (a: Alteration) => (a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText ?? '')) ?? `other: ${(a.otherText ?? '').trim()}`) : a.kind);
   // Rows come ordered by enrolment: gather each enrolment's reports, then pick per draft.

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { z } from 'zod';
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { Enrollment, FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping, Report, Studio, Trial, User } from '../../db/models';
 import Papa from 'papaparse';
 import { AnalysisRequestError, changeTable, findingName, listDrafts, readerFor, renderOutput, runAnalysis, type AnalysisInput } from '../analysis';
@@ -36,8 +36,8 @@ function configHash(thresholds: Thresholds): string {
   return createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, thresholds })).digest('hex');
 }
 
-async function thresholdsOf(trial: Pick<Trial, 'studioId'>): Promise<Thresholds> {
-  return studioThresholds((await Studio.findByPk(trial.studioId, { attributes: ['id', 'settings'] }))?.settings);
+async function thresholdsOf(trial: Pick<Trial, 'studioId'>, transaction?: Transaction): Promise<Thresholds> {
+  return studioThresholds((await Studio.findByPk(trial.studioId, { attributes: ['id', 'settings'], transaction }))?.settings);
 }
 
 function analyse(input: AnalysisInput, options: { draft?: string; compare?: [string, string] }, thresholds: Thresholds): AnalysisOutput {
@@ -78,11 +78,11 @@ export async function refreshFindings(trial: Pick<Trial, 'id' | 'patternId' | 's
       { bind: [trial.id], type: QueryTypes.SELECT, transaction },
     );
     if (!state) return { revision: '0', computedRevision: '0', configHash: null, computedAt: null };
-    const thresholds = await thresholdsOf(trial);
+    const thresholds = await thresholdsOf(trial, transaction);
     const config = configHash(thresholds);
     if (isFresh(state, config)) return state;
 
-    const input = await analysisInputFor(trial);
+    const input = await analysisInputFor(trial, transaction);
     const hash = sourceHash(input, thresholds);
     const drafts = listDrafts(input);
     const stored = await FindingSnapshot.findAll({ where: { trialId: trial.id }, attributes: ['id', 'draft', 'sourceHash'], transaction });
