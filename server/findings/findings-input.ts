@@ -43,28 +43,27 @@ type Row = {
   fabric: { widthMm?: number | null; usedMm?: number | null; napped?: boolean } | null;
   unclear: { step: string }[] | null;
 };
+type Packed = [string, string, Row['stage'], Row['body'], Row['draft_version'], Row['alterations'], Row['fit'], Row['fabric'], Row['unclear']];
 
 /**
  * The submitted reports of a trial with only the columns and parts of the content the engine
- * needs, in one query (no model instances): enrolment, size, stage, the measurements copied into
- * the application, and the report's draft, alterations, fit, fabric and unclear steps.
+ * needs, in one query: enrolment, size, stage, the measurements copied into the application, and
+ * the report's draft, alterations, fit, fabric and unclear steps. PostgreSQL packs them into one
+ * JSON text, read with one JSON.parse (thousands of rows, no per-row overhead, no model instances).
  */
 async function submittedRows(trialId: string, transaction?: Transaction): Promise<Row[]> {
-  return Trial.sequelize!.query<Row>(
-    `SELECT e.id AS enrollment_id, e.size_id, r.stage,
-            a.profile_snapshot -> 'measurementsMm' AS body,
-            r.content -> 'draftVersion' AS draft_version,
-            r.content -> 'alterations' AS alterations,
-            r.content -> 'fit' AS fit,
-            r.content -> 'fabric' AS fabric,
-            r.content -> 'unclearSteps' AS unclear
+  const [packed] = await Trial.sequelize!.query<{ rows: string | null }>(
+    `SELECT json_agg(json_build_array(e.id, e.size_id, r.stage, a.profile_snapshot -> 'measurementsMm', r.content -> 'draftVersion',
+              r.content -> 'alterations', r.content -> 'fit', r.content -> 'fabric', r.content -> 'unclearSteps')
+              ORDER BY e.created_at, e.id, r.created_at, r.id)::text AS rows
        FROM enrollments e
        JOIN reports r ON r.enrollment_id = e.id AND r.submitted_at IS NOT NULL
        LEFT JOIN applications a ON a.id = e.application_id
-      WHERE e.trial_id = $1
-      ORDER BY e.created_at, e.id, r.created_at, r.id`,
+      WHERE e.trial_id = $1`,
     { bind: [trialId], type: QueryTypes.SELECT, transaction },
   );
+  const rows = packed?.rows ? (JSON.parse(packed.rows) as Packed[]) : [];
+  return rows.map(([enrollment_id, size_id, stage, body, draft_version, alterations, fit, fabric, unclear]) => ({ enrollment_id, size_id, stage, body, draft_version, alterations, fit, fabric, unclear }));
 }
 
 /**

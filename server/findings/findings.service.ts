@@ -26,9 +26,12 @@ type FindingKey = { kind: string; direction: 'add' | 'remove' };
 const keyOf = (f: FindingKey) => `${f.direction}\u0000${f.kind}`;
 const changeKey = (f: FindingKey) => `${f.kind}|${f.direction}`;
 
-/** Same input, same thresholds → same findings: the snapshot is reused while this hash holds. */
-function sourceHash(input: AnalysisInput, thresholds: Thresholds): string {
-  return createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, input, thresholds })).digest('hex');
+/**
+ * What a snapshot was computed from: the engine, the thresholds and the trial's revision (which
+ * the database bumps on every write the findings depend on), so no hash of the whole input is needed.
+ */
+function sourceHash(config: string, revision: string): string {
+  return createHash('sha256').update(`${config}:${revision}`).digest('hex');
 }
 
 /** The engine and thresholds the stored findings were computed with; a change makes them stale. */
@@ -83,7 +86,7 @@ export async function refreshFindings(trial: Pick<Trial, 'id' | 'patternId' | 's
     if (isFresh(state, config)) return state;
 
     const input = await analysisInputFor(trial, transaction);
-    const hash = sourceHash(input, thresholds);
+    const hash = sourceHash(config, String(state.revision));
     const drafts = listDrafts(input);
     const stored = await FindingSnapshot.findAll({ where: { trialId: trial.id }, attributes: ['id', 'draft', 'sourceHash'], transaction });
     for (const old of stored) if (!drafts.includes(old.draft)) await old.destroy({ transaction });
