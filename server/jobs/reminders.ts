@@ -11,25 +11,37 @@ import { daysLate, daysUntil, digestDayAt, reminderDueAt, safeZone } from './sch
 /** What each tester milestone asks for, in the words of a reminder. */
 export const WHAT_IS_DUE: Partial<Record<MilestoneKind, string>> = { 'toile-check-in': 'toile check-in', 'final-report': 'final report' };
 
-type Loaded = Enrollment & { user: User; trial: Trial & { milestones: Milestone[]; studio: Studio }; reports: Report[] };
+export type Loaded = Enrollment & { user: User; trial: Trial & { milestones: Milestone[]; studio: Studio }; reports: Report[] };
 
-async function activeEnrollments(): Promise<Loaded[]> {
+/**
+ * The active enrolments of trials that remind, with only what the sweep reads: the tester's name,
+ * address and zone, the stage and time of each submitted report (not its content), the trial's
+ * milestones and studio. A reminder tick and a digest tick within one pass share one load (see
+ * runMailTick).
+ */
+export async function activeEnrollments(): Promise<Loaded[]> {
   const rows = await Enrollment.findAll({
     where: { status: 'active' },
+    attributes: ['id', 'trialId', 'userId', 'status', 'dueOverrides'],
     include: [
-      { model: User, as: 'user', required: true },
-      { model: Report, as: 'reports' },
+      { model: User, as: 'user', required: true, attributes: ['id', 'name', 'email', 'timeZone'] },
+      { model: Report, as: 'reports', attributes: ['id', 'stage', 'submittedAt'], where: { submittedAt: { [Op.ne]: null } }, required: false },
       {
         model: Trial,
         as: 'trial',
         required: true,
+        attributes: ['id', 'studioId', 'title', 'state'],
         where: { state: { [Op.in]: [...REMINDING_TRIAL_STATES] } },
-        include: [{ model: Milestone, as: 'milestones' }, { model: Studio, as: 'studio' }],
+        include: [{ model: Milestone, as: 'milestones', attributes: ['id', 'kind', 'dueAt'] }, { model: Studio, as: 'studio', attributes: ['id', 'name', 'timeZone'] }],
       },
     ],
   });
   return rows as Loaded[];
 }
+
+/** Lets other work (requests to the API in the same process) run between chunks of a long sweep. */
+const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve));
+const CHUNK = 200;
 
 const submitted = (e: Loaded, kind: MilestoneKind) => e.reports.some((r) => r.stage === STAGE_OF[kind] && r.submittedAt !== null);
 
@@ -53,9 +65,11 @@ function count(result: SweepResult, status: string | undefined) {
  * milestone asks. Idempotent: the key names the enrollment, milestone, stage and due time, so
  * running it again (or in two processes) adds nothing, and a moved due date gets fresh keys.
  */
-export async function sweepReminders(config: Config, now: Date): Promise<SweepResult> {
+export async function sweepReminders(config: Config, now: Date, loaded?: Loaded[]): Promise<SweepResult> {
   const result: SweepResult = { queued: 0, skipped: 0 };
-  for (const e of await activeEnrollments()) {
+  let done = 0;
+  for (const e of loaded ?? (await activeEnrollments())) {
+    if (++done % CHUNK === 0) await yieldToOthers();
     for (const { kind, due } of openItems(e)) {
       const planned = reminderDueAt(due, e.user.timeZone, now);
       if (!planned) continue;
@@ -96,10 +110,12 @@ export async function sweepReminders(config: Config, now: Date): Promise<SweepRe
  * Once a day, from 08:00 in the studio's time zone, the owner and coordinators get the list of
  * testers whose due time has passed without a submission. Nothing is sent on a day with none.
  */
-export async function sweepDigests(config: Config, now: Date): Promise<SweepResult> {
+export async function sweepDigests(config: Config, now: Date, loaded?: Loaded[]): Promise<SweepResult> {
   const result: SweepResult = { queued: 0, skipped: 0 };
   const byStudio = new Map<string, { studio: Studio; lines: DigestLine[] }>();
-  for (const e of await activeEnrollments()) {
+  let done = 0;
+  for (const e of loaded ?? (await activeEnrollments())) {
+    if (++done % CHUNK === 0) await yieldToOthers();
     const studio = e.trial.studio;
     if (!studio) continue;
     for (const { kind, due } of openItems(e)) {

@@ -198,16 +198,29 @@ export async function failStaleClaims(): Promise<number> {
 
 export type Settled = { id: string; to: string; template: string; subject: string; status: string; lastError: string | null };
 
-/** Delivers every message that is due, in batches, until none is left; says what became of each. */
-export async function flushOutbox(deps: OutboxDeps, now = new Date(), batch = 50): Promise<Settled[]> {
+/** Messages handed to the mail transport at once: enough to keep its pooled connections busy. */
+export const OUTBOX_IN_FLIGHT = 10;
+
+/**
+ * Delivers every message that is due, in claimed batches, until none is left (no cap on rounds:
+ * a due evening of thousands of reminders leaves nothing behind), with at most OUTBOX_IN_FLIGHT
+ * messages in flight. A message that fails waits for its retry time, so it is not claimed again in
+ * the same run. Says what became of each.
+ */
+export async function flushOutbox(deps: OutboxDeps, now = new Date(), batch = 100): Promise<Settled[]> {
   const settledRows: Settled[] = [];
-  for (let round = 0; round < 100; round += 1) {
+  for (;;) {
     const rows = await claim({ now, limit: batch });
     if (rows.length === 0) break;
-    for (const row of rows) {
-      const s = await attempt(deps, row, now);
-      settledRows.push({ id: s.id, to: s.recipientEmail, template: s.template, subject: s.subject, status: s.status, lastError: s.status === 'sent' ? null : s.lastError });
-    }
+    let next = 0;
+    const lane = async () => {
+      while (next < rows.length) {
+        const row = rows[next++];
+        const s = await attempt(deps, row, now);
+        settledRows.push({ id: s.id, to: s.recipientEmail, template: s.template, subject: s.subject, status: s.status, lastError: s.status === 'sent' ? null : s.lastError });
+      }
+    };
+    await Promise.all(Array.from({ length: Math.min(OUTBOX_IN_FLIGHT, rows.length) }, lane));
   }
   return settledRows;
 }

@@ -8,8 +8,16 @@ import type { DecisionEffects } from './trials.service';
 import { milestoneMap, studioOf } from './trials.service';
 
 /** A date and time in words, in the given time zone (the tester's or the studio's). */
+const DUE_FORMATS = new Map<string, Intl.DateTimeFormat>();
+
+/** A due time in a zone's words; one formatter per zone, made once (thousands of reminders a sweep). */
 export function formatDue(date: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'full', timeStyle: 'short', timeZone }).format(date);
+  let format = DUE_FORMATS.get(timeZone);
+  if (!format) {
+    format = new Intl.DateTimeFormat('en-GB', { dateStyle: 'full', timeStyle: 'short', timeZone });
+    DUE_FORMATS.set(timeZone, format);
+  }
+  return format.format(date);
 }
 
 /**
