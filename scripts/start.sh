@@ -20,4 +20,5 @@ cat >&2 <<MSG
 
 MSG
 echo $$ >"$PIDFILE"
-exec node --import tsx server/index.ts
+# The bundle setup.sh built (scripts/build-server.mjs): plain node, no TypeScript at run time.
+exec node --enable-source-maps dist-server/index.js

@@ -1,0 +1,16 @@
+// The production server: server/index.ts and everything it imports bundled by esbuild into one
+// CommonJS file run by plain node (no TypeScript transform at run time); packages stay in
+// node_modules. Development and scripts keep tsx.
+import { build } from 'esbuild';
+
+await build({
+  entryPoints: ['server/index.ts'],
+  outfile: 'dist-server/index.js',
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'cjs',
+  packages: 'external',
+  sourcemap: true,
+  logLevel: 'warning',
+});
