@@ -43,5 +43,6 @@ if [[ ! -f dist/index.html || "$(cat dist/.source-hash 2>/dev/null)" != "$web_ha
   rm -rf dist
   expo export --platform web --output-dir dist >"$BASTED_DATA_DIR/logs/web-export.log" 2>&1 \
     || { tail -n 40 "$BASTED_DATA_DIR/logs/web-export.log" >&2; say "web export failed"; exit 1; }
+  node scripts/precompress.mjs dist >>"$BASTED_DATA_DIR/logs/web-export.log"
   echo "$web_hash" >dist/.source-hash
 fi
