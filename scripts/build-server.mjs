@@ -4,8 +4,9 @@
 import { build } from 'esbuild';
 
 await build({
-  entryPoints: ['server/index.ts'],
-  outfile: 'dist-server/index.js',
+  // The API and the job worker it starts (server/worker.ts).
+  entryPoints: ['server/index.ts', 'server/worker.ts'],
+  outdir: 'dist-server',
   bundle: true,
   platform: 'node',
   target: 'node20',

@@ -25,6 +25,9 @@ const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 3);
 const JWT_SECRET = 'bench-only-secret-0123456789-abcdefghijklmnop';
 type Line = { name: string; ours: number; floor: number | null; ratio: number | null; unit: string; goal: string; pass: boolean | null };
 const lines: Line[] = [];
+/** BENCH_ONLY=reads,mail … runs some sections (while working on one); the default is all of them. */
+const ONLY = process.env.BENCH_ONLY?.split(',');
+const only = (section: string) => !ONLY || ONLY.includes(section);
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -172,7 +175,7 @@ async function main() {
     await sequelize.query('VACUUM ANALYZE');
 
     // ---- findings recompute against the raw SQL aggregate of the same rows
-    for (const n of [500, 3000, 8000]) {
+    for (const n of only('recompute') ? [500, 3000, 8000] : []) {
       const trial = (await Trial.findByPk(worlds[n].trialId))!;
       await refreshFindings(trial);
       const ours: number[] = [];
@@ -204,7 +207,7 @@ async function main() {
     const readOurs = new Map<string, { cpu: number[]; p99: number[]; bad: number }>();
     const floorCpu: number[] = [];
     const floorP99: number[] = [];
-    for (let r = 0; r < ROUNDS; r += 1) {
+    for (let r = 0; r < (only('reads') ? ROUNDS : 0); r += 1) {
       const f = await load(pid, trivial, owner(500), 100, 3);
       floorCpu.push(f.cpuPerRequest);
       floorP99.push(f.p99);
@@ -229,7 +232,7 @@ async function main() {
     record('reports list, 8000 testers: bytes of one answer', Number((await page.arrayBuffer()).byteLength), null, 'B', { oursAtMost: 1_000_000 });
 
     // ---- health: the deep check (kept a few seconds) against liveness
-    {
+    if (only('reads')) {
       const deep: number[] = [];
       const live: number[] = [];
       for (let r = 0; r < ROUNDS; r += 1) {
@@ -240,7 +243,7 @@ async function main() {
     }
 
     // ---- a submission against a plain write (saving the same report), one at a time
-    for (const n of [500, 3000, 8000]) {
+    for (const n of only('submit') ? [500, 3000, 8000] : []) {
       const ready = worlds[n].ready;
       const writes: number[] = [];
       const submits: number[] = [];
@@ -259,7 +262,7 @@ async function main() {
     }
 
     // ---- 50 submissions a second for 20 s on a trial of 2000 reports
-    {
+    if (only('burst')) {
       const agent = new http.Agent({ keepAlive: true, maxSockets: 256 });
       const ready = worlds[2000].ready;
       const hwmBefore = memKb(pid, 'VmHWM');
@@ -296,7 +299,7 @@ async function main() {
     // ---- memory of the server process: built bundle against tsx
     const builtRss = memKb(pid, 'VmRSS');
     await stop(server);
-    {
+    if (only('memory')) {
       const idle: number[] = [];
       const tsxIdle: number[] = [];
       for (let r = 0; r < 2; r += 1) {
@@ -314,7 +317,7 @@ async function main() {
     }
 
     // ---- first load: the JS of the first screen against a bare Expo Router app of the same SDK
-    {
+    if (only('first-load')) {
       const ours = exportedBytes(path.join(ROOT, 'dist'));
       const bare = exportedBytes(await exportBare());
       record('first load JS, raw bytes (floor: bare Expo Router app)', ours.raw, bare.raw, 'B', { ratioAtMost: 1.3 });
@@ -325,7 +328,7 @@ async function main() {
     }
 
     // ---- reminders: 10,000 due at one instant, against nodemailer's pooled transport alone
-    {
+    if (only('mail')) {
       await ask({ ask: 'reset' });
       const floorMailer = nodemailer.createTransport({ host: '127.0.0.1', port: sinkPort, secure: false, ignoreTLS: true, pool: true, maxConnections: 5 });
       const t0 = performance.now();

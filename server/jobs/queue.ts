@@ -1,7 +1,7 @@
 import PgBoss from 'pg-boss';
 import type { OutboxDeps } from '../outbox/outbox.service';
 import { flushOutbox } from '../outbox/outbox.service';
-import { startFindingsWorker, stopFindingsWorker } from '../findings/findings-jobs';
+import { startFindingsWorker, stopFindingsWorker, useFindingsQueue } from '../findings/findings-jobs';
 import { runMailTick } from './tick';
 
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
@@ -49,6 +49,25 @@ export async function startJobQueue(deps: OutboxDeps, options: JobQueueOptions):
   });
   // Findings are recomputed here, debounced per trial, rather than inside a tester's submission.
   await startFindingsWorker(boss);
+  return {
+    boss,
+    async stop() {
+      stopFindingsWorker();
+      await boss.stop({ graceful: true, timeout: 8_000 });
+    },
+  };
+}
+
+/**
+ * The API process's end of the queue: sends jobs (the findings recomputations after a submission)
+ * and runs no worker and no schedule, so no sweep ever shares the event loop that answers
+ * requests. The jobs run in the worker process (server/worker.ts).
+ */
+export async function startJobSender(options: { databaseUrl: string }): Promise<JobQueue> {
+  const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 2, application_name: 'basted-api', supervise: false, schedule: false });
+  boss.on('error', (error: unknown) => console.error('[jobs]', error));
+  await boss.start();
+  await useFindingsQueue(boss);
   return {
     boss,
     async stop() {

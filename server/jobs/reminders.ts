@@ -1,4 +1,4 @@
-import { Op } from 'sequelize';
+import { literal, Op } from 'sequelize';
 import { Enrollment, Membership, Milestone, Report, Studio, Trial, User } from '../../db/models';
 import type { Config } from '../config';
 import { TESTER_EXPECTATIONS, TESTER_MILESTONES, type MilestoneKind } from '../domain/trials';
@@ -19,12 +19,25 @@ export type Loaded = Enrollment & { user: User; trial: Trial & { milestones: Mil
  * milestones and studio. A reminder tick and a digest tick within one pass share one load (see
  * runMailTick).
  */
-export async function activeEnrollments(): Promise<Loaded[]> {
+export async function activeEnrollments(now: Date = new Date()): Promise<Loaded[]> {
+  // Filtered in SQL: only enrolments that could owe something near now — a tester milestone due
+  // within the next REMINDER_LOOKAHEAD_DAYS (the earliest reminder goes out 3 days before, in the
+  // tester's own morning) or already past (the overdue reminder and the digest), or a date of
+  // their own. A trial whose dates are weeks away costs nothing.
+  const horizon = new Date(now.getTime() + REMINDER_LOOKAHEAD_DAYS * 86_400_000);
   const rows = await Enrollment.findAll({
-    where: { status: 'active' },
+    where: {
+      status: 'active',
+      [Op.or]: [
+        literal(`"Enrollment"."due_overrides" <> '{}'::jsonb`),
+        literal(
+          `EXISTS (SELECT 1 FROM milestones m WHERE m.trial_id = "Enrollment"."trial_id" AND m.kind IN (${TESTER_MILESTONES.map((k) => Enrollment.sequelize!.escape(k)).join(', ')}) AND m.due_at <= ${Enrollment.sequelize!.escape(horizon.toISOString())}::timestamptz)`,
+        ),
+      ],
+    },
     attributes: ['id', 'trialId', 'userId', 'status', 'dueOverrides'],
     include: [
-      { model: User, as: 'user', required: true, attributes: ['id', 'name', 'email', 'timeZone'] },
+      { model: User, as: 'user', required: true, attributes: ['id', 'name', 'email', 'timeZone', 'mailReminders'] },
       { model: Report, as: 'reports', attributes: ['id', 'stage', 'submittedAt'], where: { submittedAt: { [Op.ne]: null } }, required: false },
       {
         model: Trial,
@@ -40,6 +53,9 @@ export async function activeEnrollments(): Promise<Loaded[]> {
 }
 
 /** Lets other work (requests to the API in the same process) run between chunks of a long sweep. */
+/** Days ahead of now within which a due date can have a reminder due (3 days + the widest zone offset). */
+const REMINDER_LOOKAHEAD_DAYS = 5;
+
 const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve));
 const CHUNK = 200;
 
@@ -68,7 +84,7 @@ function count(result: SweepResult, status: string | undefined) {
 export async function sweepReminders(config: Config, now: Date, loaded?: Loaded[]): Promise<SweepResult> {
   const result: SweepResult = { queued: 0, skipped: 0 };
   let done = 0;
-  for (const e of loaded ?? (await activeEnrollments())) {
+  for (const e of loaded ?? (await activeEnrollments(now))) {
     if (++done % CHUNK === 0) await yieldToOthers();
     for (const { kind, due } of openItems(e)) {
       const planned = reminderDueAt(due, e.user.timeZone, now);
@@ -98,7 +114,7 @@ export async function sweepReminders(config: Config, now: Date, loaded?: Loaded[
             optOut: optOutFor(config, e.user.id, 'reminders'),
           }),
         },
-        { now },
+        { now, preferenceOff: !e.user.mailReminders, reload: false },
       );
       count(result, row?.status);
     }
@@ -114,7 +130,7 @@ export async function sweepDigests(config: Config, now: Date, loaded?: Loaded[])
   const result: SweepResult = { queued: 0, skipped: 0 };
   const byStudio = new Map<string, { studio: Studio; lines: DigestLine[] }>();
   let done = 0;
-  for (const e of loaded ?? (await activeEnrollments())) {
+  for (const e of loaded ?? (await activeEnrollments(now))) {
     if (++done % CHUNK === 0) await yieldToOthers();
     const studio = e.trial.studio;
     if (!studio) continue;

@@ -19,7 +19,7 @@ export type TickResult = {
 export async function runMailTick(deps: OutboxDeps, now: Date = new Date()): Promise<TickResult> {
   const staleFailed = await failStaleClaims();
   // One load of the active enrolments serves both sweeps.
-  const loaded = await activeEnrollments();
+  const loaded = await activeEnrollments(now);
   const reminders = await sweepReminders(deps.config, now, loaded);
   const digests = await sweepDigests(deps.config, now, loaded);
   const delivered = await flushOutbox(deps, now);

@@ -4,7 +4,7 @@ import { OutboxMessage, User } from '../../db/models';
 import type { MailCategory } from '../../db/models/outbox-message';
 import type { Config } from '../config';
 import { conflict, notFound } from '../errors';
-import { reminderObsolete } from '../jobs/reminder-state';
+import { reminderObsolete, remindersObsolete } from '../jobs/reminder-state';
 import type { Mailer } from '../mail/mailer';
 import { isOptional, OPTIONAL_KINDS, optOutUrl, type OptionalKind } from '../mail/opt-out';
 import type { MailContent, OptOut } from '../mail/templates';
@@ -61,10 +61,11 @@ const skippedReason = (category: MailCategory) => `Not sent: the recipient turne
 export async function enqueue(
   deps: Pick<OutboxDeps, 'config'>,
   message: NewMessage,
-  options: { now?: Date; transaction?: Transaction } = {},
+  options: { now?: Date; transaction?: Transaction; preferenceOff?: boolean; reload?: boolean } = {},
 ): Promise<OutboxMessage | null> {
   const now = options.now ?? new Date();
-  const off = await preferenceOff(message.to.id, message.category, options.transaction);
+  // A sweep that loaded the recipient already knows their choice: no lookup per message.
+  const off = options.preferenceOff ?? (await preferenceOff(message.to.id, message.category, options.transaction));
   const optOut = optOutFor(deps.config, message.to.id, message.category);
   // RFC 8058 one-click unsubscribe headers, so mail programs can offer the same opt-out.
   const headers: Record<string, string> = optOut ? { 'List-Unsubscribe': `<${optOut.url}>`, 'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click' } : {};
@@ -101,7 +102,10 @@ export async function enqueue(
     },
   );
   const id = (rows as { id: string }[])[0]?.id;
-  return id ? OutboxMessage.findByPk(id, { transaction: options.transaction }) : null;
+  if (!id) return null;
+  // A sweep recording thousands only needs to know what became of each: no read back.
+  if (options.reload === false) return OutboxMessage.build({ id, status: off ? 'skipped' : 'queued' } as never, { isNewRecord: false });
+  return OutboxMessage.findByPk(id, { transaction: options.transaction });
 }
 
 function describeError(error: unknown): string {
@@ -109,15 +113,39 @@ function describeError(error: unknown): string {
   return text.slice(0, 1000) || 'unknown error';
 }
 
-/** Settles a claimed row: sent, skipped, cancelled, or back in the queue / failed after an error. */
-async function attempt(deps: OutboxDeps, row: OutboxMessage, now: Date): Promise<OutboxMessage> {
+/** What a batch of claimed rows needs to know before sending, read in a few queries for the whole batch. */
+type Known = { off: Map<string, boolean>; obsolete: Map<string, string | null> };
+
+async function knownFor(rows: OutboxMessage[]): Promise<Known> {
+  const off = new Map<string, boolean>();
+  const ids = [...new Set(rows.map((r) => r.recipientId).filter((id): id is string => Boolean(id)))];
+  if (ids.length) {
+    const users = await User.findAll({ where: { id: ids }, attributes: ['id', 'mailReminders', 'mailTrialNews', 'mailDigest'] });
+    const byId = new Map(users.map((u) => [u.id, u]));
+    for (const row of rows) {
+      if (!row.recipientId || !isOptional(row.category)) continue;
+      const user = byId.get(row.recipientId);
+      off.set(row.id, Boolean(user && !user[OPTIONAL_KINDS[row.category as OptionalKind].field]));
+    }
+  }
+  const obsolete = await remindersObsolete(rows.filter((r) => r.category === 'reminders' && r.enrollmentId));
+  return { off, obsolete };
+}
+
+/**
+ * Settles a claimed row: sent, skipped, cancelled, or back in the queue / failed after an error.
+ * With `known` (a flush of a batch) the recipient's choice and the reminder's state come from the
+ * batch's look-ups and the settled row is not read back.
+ */
+async function attempt(deps: OutboxDeps, row: OutboxMessage, now: Date, known?: Known): Promise<OutboxMessage> {
   const settle = async (fields: Partial<OutboxMessage>) => {
     await OutboxMessage.update({ ...fields, claimedAt: null }, { where: { id: row.id, status: 'sending' } });
+    if (known) return row.set({ ...fields, claimedAt: null });
     return (await OutboxMessage.findByPk(row.id))!;
   };
-  if (await preferenceOff(row.recipientId, row.category)) return settle({ status: 'skipped', lastError: skippedReason(row.category) });
+  if (known ? known.off.get(row.id) : await preferenceOff(row.recipientId, row.category)) return settle({ status: 'skipped', lastError: skippedReason(row.category) });
   if (row.category === 'reminders' && row.enrollmentId) {
-    const why = await reminderObsolete(row);
+    const why = known ? (known.obsolete.get(row.id) ?? null) : await reminderObsolete(row);
     if (why) return settle({ status: 'cancelled', lastError: `Not sent: ${why}.` });
   }
   if (row.text === null) return settle({ status: 'failed', lastError: 'The content of this message is no longer kept.' });
@@ -212,11 +240,12 @@ export async function flushOutbox(deps: OutboxDeps, now = new Date(), batch = 10
   for (;;) {
     const rows = await claim({ now, limit: batch });
     if (rows.length === 0) break;
+    const known = await knownFor(rows);
     let next = 0;
     const lane = async () => {
       while (next < rows.length) {
         const row = rows[next++];
-        const s = await attempt(deps, row, now);
+        const s = await attempt(deps, row, now, known);
         settledRows.push({ id: s.id, to: s.recipientEmail, template: s.template, subject: s.subject, status: s.status, lastError: s.status === 'sent' ? null : s.lastError });
       }
     };
