@@ -33,7 +33,7 @@ export async function startFindingsWorker(boss: PgBoss, options: { pollingInterv
  * In a process that runs no worker (the API when the jobs run in their own process): sends the
  * recomputations to the queue, where the worker process picks them up.
  */
-export async function useFindingsQueue(boss: PgBoss): Promise<void> {
+export async function registerFindingsSender(boss: PgBoss): Promise<void> {
   await boss.createQueue(FINDINGS_QUEUE, { name: FINDINGS_QUEUE, policy: 'stately', retryLimit: 3, retryDelay: 5, expireInSeconds: 300 });
   queue = boss;
 }

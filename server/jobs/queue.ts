@@ -1,7 +1,7 @@
 import PgBoss from 'pg-boss';
 import type { OutboxDeps } from '../outbox/outbox.service';
 import { flushOutbox } from '../outbox/outbox.service';
-import { startFindingsWorker, stopFindingsWorker, useFindingsQueue } from '../findings/findings-jobs';
+import { startFindingsWorker, stopFindingsWorker, registerFindingsSender } from '../findings/findings-jobs';
 import { runMailTick } from './tick';
 
 /** Queue names. The jobs carry no data: the outbox and the reminder rules live in our tables. */
@@ -67,7 +67,7 @@ export async function startJobSender(options: { databaseUrl: string }): Promise<
   const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 2, application_name: 'basted-api', supervise: false, schedule: false });
   boss.on('error', (error: unknown) => console.error('[jobs]', error));
   await boss.start();
-  await useFindingsQueue(boss);
+  await registerFindingsSender(boss);
   return {
     boss,
     async stop() {
