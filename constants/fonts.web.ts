@@ -6,6 +6,7 @@ import { FontDisplay } from 'expo-font';
 // takes Inter when it arrives.
 const face = (uri: number) => ({ uri, display: FontDisplay.SWAP });
 
+/* eslint-disable @typescript-eslint/no-require-imports -- Metro turns each require into the font asset. */
 export const APP_FONTS = {
   Inter_400Regular: face(require('@fontsource/inter/files/inter-latin-400-normal.woff2')),
   Inter_500Medium: face(require('@fontsource/inter/files/inter-latin-500-normal.woff2')),
@@ -13,5 +14,6 @@ export const APP_FONTS = {
   Inter_700Bold: face(require('@fontsource/inter/files/inter-latin-700-normal.woff2')),
   ...Ionicons.font,
 };
+/* eslint-enable @typescript-eslint/no-require-imports */
 
 export const WAIT_FOR_FONTS = false;
