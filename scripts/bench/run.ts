@@ -336,7 +336,7 @@ async function main() {
       const bareDist = path.join(ROOT, '.artifacts/bare-app/dist');
       const staticApp = express();
       staticApp.use(expressStaticGzip(bareDist, { enableBrotli: true, orderPreference: ['br', 'gzip'], index: false }));
-      staticApp.get('/{*splat}', (_req, res) => res.sendFile(path.join(bareDist, 'index.html')));
+      staticApp.get('/{*splat}', (_req, res) => res.sendFile(path.join(bareDist, 'index.html'), { dotfiles: 'allow' }));
       const staticServer = staticApp.listen(0, '127.0.0.1');
       await new Promise((r) => staticServer.once('listening', r));
       const barePort = (staticServer.address() as { port: number }).port;
@@ -397,25 +397,27 @@ async function main() {
       // The API beside the worker (here this process runs the tick, as the worker process does):
       // a trivial route asked every 50 ms before and during the sweep and delivery.
       server = await startServer(env, ['--enable-source-maps', 'dist-server/index.js']);
-      const ping = async (until: () => boolean) => {
-        const ms: number[] = [];
-        while (!until()) {
-          ms.push((await request(port, 'GET', '/api/health/live', {})).ms);
-          await new Promise((r) => setTimeout(r, 50));
-        }
-        return ms;
+      const pinger = async (run: () => Promise<unknown>) => {
+        const child = fork(path.join(__dirname, 'pinger.ts'), [String(port)], { execArgv: ['--import', 'tsx'], stdio: ['ignore', 'ignore', 'inherit', 'ipc'] });
+        await new Promise((r) => child.once('message', r));
+        const result = await run();
+        const ms = await new Promise<number[]>((resolve) => {
+          child.once('message', (m: { ms: number[] }) => resolve(m.ms));
+          child.send({ ask: 'stop' });
+        });
+        return { ms, result };
       };
-      const quietUntil = Date.now() + 5000;
-      const quiet = await ping(() => Date.now() > quietUntil);
-      let ticking = true;
+      const quiet = (await pinger(() => new Promise((r) => setTimeout(r, 5000)))).ms;
       const delay = monitorEventLoopDelay({ resolution: 10 });
       delay.enable();
       const t1 = performance.now();
-      const busyPings = ping(() => !ticking);
-      const tick = await runMailTick({ config, mailer }, at);
+      let tick!: Awaited<ReturnType<typeof runMailTick>>;
+      const busy = (
+        await pinger(async () => {
+          tick = await runMailTick({ config, mailer }, at);
+        })
+      ).ms;
       const seconds = (performance.now() - t1) / 1000;
-      ticking = false;
-      const busy = await busyPings;
       delay.disable();
       mailer.close();
       await stop(server);
