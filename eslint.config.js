@@ -5,7 +5,7 @@ const expoConfig = require('eslint-config-expo/flat');
 module.exports = defineConfig([
   expoConfig,
   {
-    ignores: ['dist/*', '.data/*', '.artifacts/*', '.expo/*', 'expo-env.d.ts'],
+    ignores: ['dist/*', 'dist-server/*', '.data/*', '.artifacts/*', '.expo/*', 'expo-env.d.ts'],
   },
   {
     files: ['server/**', 'db/**', 'scripts/**', 'tests/server/**', 'tests/e2e/**'],

@@ -3,7 +3,23 @@
 const http = require('node:http');
 const { getDefaultConfig } = require('expo/metro-config');
 
+const path = require('node:path');
+
 const config = getDefaultConfig(__dirname);
+
+// The web fonts ship as WOFF2 (constants/fonts.web.ts).
+config.resolver.assetExts = [...config.resolver.assetExts, 'woff2'];
+
+// zod's locale index pulls in every language; the app uses English only. Tied to zod 4's
+// internal path (zod/v4/locales/index.js): recheck on a zod upgrade.
+const zodLocalesEn = path.join(__dirname, 'scripts/zod-locales-en.js');
+const upstreamResolve = config.resolver.resolveRequest;
+config.resolver.resolveRequest = (context, moduleName, platform) => {
+  if (moduleName === '../locales/index.js' && /[\\/]zod[\\/]v4[\\/](classic|core|mini)[\\/]/.test(context.originModulePath)) {
+    return { type: 'sourceFile', filePath: zodLocalesEn };
+  }
+  return upstreamResolve ? upstreamResolve(context, moduleName, platform) : context.resolveRequest(context, moduleName, platform);
+};
 const apiPort = Number(process.env.PORT || 8080);
 
 config.server = {

@@ -29,7 +29,7 @@ type Options = {
   keepalive?: boolean;
 };
 
-export async function api<T>(path: string, { method = 'GET', body, text, form, keepalive }: Options = {}): Promise<T> {
+async function request(path: string, { method = 'GET', body, text, form, keepalive }: Options): Promise<{ data: unknown; next: string | null }> {
   let res: Response;
   try {
     res = await fetch(path, {
@@ -45,14 +45,38 @@ export async function api<T>(path: string, { method = 'GET', body, text, form, k
   } catch {
     throw new ApiError(0, 'offline', 'Basted cannot be reached. Check your connection and try again.');
   }
-  if (res.status === 204) return undefined as T;
+  if (res.status === 204) return { data: undefined, next: null };
   const data = await res.json().catch(() => null);
   if (!res.ok) {
     const error = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null)?.error;
     throw new ApiError(res.status, error?.code ?? 'error', error?.message ?? `The server answered ${res.status}.`, error?.fields, data);
   }
-  return data as T;
+  // Long lists come a page at a time, the next page's address in `Link: <…>; rel="next"`.
+  const link = res.headers?.get?.('Link') ?? null;
+  const next = link ? (/<([^>]+)>\s*;\s*rel="next"/.exec(link)?.[1] ?? null) : null;
+  return { data, next };
 }
 
-/** SWR's fetcher: keys are API paths. */
-export const fetcher = <T>(path: string) => api<T>(path);
+export async function api<T>(path: string, options: Options = {}): Promise<T> {
+  return (await request(path, options)).data as T;
+}
+
+/** The most pages one list read follows (at 200 rows a page: 20,000 rows). */
+const MAX_PAGES = 100;
+
+/**
+ * SWR's fetcher: keys are API paths. A list sent in pages is read page after page and joined, so
+ * every screen sees the whole list while no single answer from the server is large.
+ */
+export const fetcher = async <T>(path: string): Promise<T> => {
+  const first = await request(path, {});
+  if (!Array.isArray(first.data) || !first.next) return first.data as T;
+  const rows: unknown[] = [...first.data];
+  let next: string | null = first.next;
+  for (let page = 1; next && page < MAX_PAGES; page += 1) {
+    const more = await request(next, {});
+    rows.push(...(more.data as unknown[]));
+    next = more.next;
+  }
+  return rows as T;
+};

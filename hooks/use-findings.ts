@@ -16,7 +16,14 @@ export type FindingsResponse = {
   input: { testers: number };
   result: FindingsResult | null;
   snapshot?: { draft: string | number; computedAt: string } | null;
+  /** Newer reports than these findings count are being counted; the answer is asked again until done. */
+  pending?: boolean;
+  /** When the findings were last brought up to date with every report. */
+  computedAt?: string | null;
 };
+
+/** How often a findings answer marked pending is asked again. */
+export const PENDING_REFRESH_MS = 2000;
 export type FindingsQuery = { draft?: string; compare?: readonly [string, string] };
 export type TriageBody = { kind: string; direction: Direction; state: TriageState; fixedInDraft?: number };
 export type NoteBody = { kind: string; direction: Direction; body: string };
@@ -51,7 +58,11 @@ export function personName(p: Person | undefined): string | null {
 
 export function useFindings(studioId: string | null | undefined, trialId: string | undefined, query: FindingsQuery = {}) {
   // Keep the last answer on screen while another draft or comparison loads.
-  return useSWR<FindingsResponse>(studioId && trialId ? findingsKeys.one(studioId, trialId, query) : null, { keepPreviousData: true });
+  // While the job queue counts newer reports, ask again until the answer says it is done.
+  return useSWR<FindingsResponse>(studioId && trialId ? findingsKeys.one(studioId, trialId, query) : null, {
+    keepPreviousData: true,
+    refreshInterval: (latest) => (latest?.pending ? PENDING_REFRESH_MS : 0),
+  });
 }
 
 /**

@@ -28,7 +28,15 @@ bash scripts/fakes.sh start
 NODE_ENV=development node --import tsx db/cli.ts migrate
 NODE_ENV=development node --import tsx db/cli.ts seed
 
-# 4. The web app, rebuilt only when its sources changed.
+# 4. The production server bundle (esbuild), rebuilt only when the server's sources changed.
+server_hash="$(find server db -type f -name '*.ts' 2>/dev/null | LC_ALL=C sort | xargs cat | cat - scripts/build-server.mjs package-lock.json | sha256sum | cut -c1-64)"
+if [[ ! -f dist-server/index.js || "$(cat dist-server/.source-hash 2>/dev/null)" != "$server_hash" ]]; then
+  say "building the server (esbuild) ..."
+  node scripts/build-server.mjs
+  echo "$server_hash" >dist-server/.source-hash
+fi
+
+# 5. The web app, rebuilt only when its sources changed.
 sources="$(find app components hooks constants assets server/domain -type f 2>/dev/null | LC_ALL=C sort;
   echo app.json babel.config.js metro.config.js tsconfig.json package-lock.json)"
 web_hash="$(echo "$sources" | xargs cat 2>/dev/null | cat - <(echo "$sources") | sha256sum | cut -c1-64)"
@@ -37,5 +45,6 @@ if [[ ! -f dist/index.html || "$(cat dist/.source-hash 2>/dev/null)" != "$web_ha
   rm -rf dist
   expo export --platform web --output-dir dist >"$BASTED_DATA_DIR/logs/web-export.log" 2>&1 \
     || { tail -n 40 "$BASTED_DATA_DIR/logs/web-export.log" >&2; say "web export failed"; exit 1; }
+  node scripts/precompress.mjs dist >>"$BASTED_DATA_DIR/logs/web-export.log"
   echo "$web_hash" >dist/.source-hash
 fi

@@ -20,5 +20,6 @@ cat >&2 <<MSG
 
 MSG
 echo $$ >"$PIDFILE"
+# The bundle setup.sh built (scripts/build-server.mjs): plain node, no TypeScript at run time.
 # The local set-up: fakes, the development secret and plain-http cookies are allowed by name.
-NODE_ENV=development exec node --import tsx server/index.ts
+NODE_ENV=development exec node --enable-source-maps dist-server/index.js

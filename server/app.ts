@@ -1,5 +1,5 @@
-import { existsSync } from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express from 'express';
 import helmet from 'helmet';
@@ -23,6 +23,7 @@ import { profileRouter } from './profile/profile.routes';
 import { calendarFeedRouter, myDataRouter } from './me/me.routes';
 import type { Storage } from './storage/storage';
 import { studiosRouter } from './studios/studios.routes';
+import { webApp } from './web/web-app';
 
 export type AppDeps = {
   config: Config;
@@ -63,25 +64,6 @@ function apiRouter(deps: RouteDeps): express.Router {
   return api;
 }
 
-/** The exported web app, with long caching for its hashed bundles and an SPA fallback. */
-function webApp(distDir: string): express.Router {
-  const web = express.Router();
-  const indexHtml = path.join(distDir, 'index.html');
-  const immutable = { immutable: true, maxAge: '365d', index: false as const };
-  web.use('/_expo', express.static(path.join(distDir, '_expo'), immutable));
-  web.use('/assets', express.static(path.join(distDir, 'assets'), immutable));
-  web.use(express.static(distDir, { index: false }));
-  web.get('/{*splat}', (_req, res) => {
-    if (!existsSync(indexHtml)) {
-      res.status(503).type('text').send('The web app is not built yet: run `npm start` (it exports it).');
-      return;
-    }
-    res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(indexHtml);
-  });
-  return web;
-}
-
 export function createApp(deps: AppDeps): express.Express {
   const app = express();
   app.disable('x-powered-by');
@@ -105,8 +87,9 @@ export function createApp(deps: AppDeps): express.Express {
   );
   const logger = deps.logger ?? createLogger();
   if (deps.config.logRequests) app.use(requestLogger(logger));
-  app.use('/api', apiRouter({ ...deps, logger, limiters: createLimiters(deps.sequelize, deps.config.limits) }));
-  app.use(webApp(path.resolve(deps.config.webDist)));
+  // JSON answers compressed on the fly (Brotli or gzip); the web app's files were compressed at export.
+  app.use('/api', compression({ threshold: 1024 }), apiRouter({ ...deps, logger, limiters: createLimiters(deps.sequelize, deps.config.limits) }));
+  app.use(webApp(path.resolve(deps.config.webDist), deps.config.publicUrl));
   app.use(errorHandler(logger));
   return app;
 }

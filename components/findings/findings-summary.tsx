@@ -30,6 +30,7 @@ export function FindingsSummary({ studioId, trialId, role, lengthUnit }: Props) 
     <Card title="Findings">
       {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
       {!data && !error ? <Loading label="Adding up the reports…" /> : null}
+      {data?.pending ? <AppText variant="caption">Newer reports are being counted; this updates by itself.</AppText> : null}
       {data && !result ? <Empty>No report is submitted yet. Findings appear once testers send their check-ins or final reports.</Empty> : null}
       {result ? (
         <AppText variant="caption">

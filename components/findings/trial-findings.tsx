@@ -93,6 +93,7 @@ export function TrialFindings({ studioId, trialId, role, lengthUnit, fabricUnit,
     <Screen title={title} intro={`Draft ${result.draft}: ${result.testers} ${result.testers === 1 ? 'tester' : 'testers'} reported (their final report, or their check-in where that is all they sent on this draft; ${data.input.testers} reports over all drafts).${snapshot}`}>
       {back}
       {error ? <Notice tone="error">{error.message}</Notice> : null}
+      {data.pending ? <Notice tone="info">Newer reports are being counted. These findings update by themselves in a few seconds.</Notice> : null}
       <Card title="What to show">
         {result.drafts.length > 1 ? (
           <ChoiceGroup

@@ -15,6 +15,8 @@ import * as rateLimits from './0016-rate-limits';
 import * as objectDeletions from './0017-object-deletions';
 import * as patternChildrensWear from './0020-pattern-childrens-wear';
 import * as releaseAndCommunity from './0021-release-and-community';
+import * as findingsRevision from './0030-findings-revision';
+import * as readIndexes from './0031-read-indexes';
 
 export type Migration = { name: string; up: MigrationFn<QueryInterface>; down: MigrationFn<QueryInterface> };
 
@@ -36,4 +38,7 @@ export const migrations: Migration[] = [
   // Numbered 0020: 0010–0019 are kept for changes made alongside on other branches.
   { name: '0020-pattern-childrens-wear', ...patternChildrensWear },
   { name: '0021-release-and-community', ...releaseAndCommunity },
+  // 0030–0034: performance (the findings revision, read indexes).
+  { name: '0030-findings-revision', ...findingsRevision },
+  { name: '0031-read-indexes', ...readIndexes },
 ];

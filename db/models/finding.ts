@@ -7,7 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import type { AnalysisOutput } from '../../server/analysis/types';
+import type { AnalysisOutput, ChangeRow } from '../../server/analysis/types';
 import type { Trial } from './trial';
 import type { User } from './user';
 
@@ -21,6 +21,10 @@ export class FindingSnapshot extends Model<InferAttributes<FindingSnapshot>, Inf
   declare sourceHash: string;
   declare testers: number;
   declare result: AnalysisOutput;
+  /** The change table of every finding, keyed "kind|direction" (rows for the ones the studio will fix are read). */
+  declare changes: CreationOptional<Record<string, ChangeRow[]>>;
+  /** Reports counted over every draft of the trial when this was computed. */
+  declare reports: CreationOptional<number>;
   declare computedAt: Date;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -33,6 +37,8 @@ export class FindingSnapshot extends Model<InferAttributes<FindingSnapshot>, Inf
         sourceHash: { type: DataTypes.STRING(64), allowNull: false },
         testers: { type: DataTypes.INTEGER, allowNull: false },
         result: { type: DataTypes.JSONB, allowNull: false },
+        changes: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        reports: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         computedAt: { type: DataTypes.DATE, allowNull: false },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

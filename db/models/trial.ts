@@ -36,6 +36,12 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
   declare releaseOpenItems: CreationOptional<{ key: string; title: string; detail: string }[] | null>;
   declare copiedFromId: CreationOptional<string | null>;
   declare photosRemovedAt: CreationOptional<Date | null>;
+  /** Bumped by the database on every write the findings depend on (see migration 0030). */
+  declare findingsRevision: CreationOptional<string>;
+  /** The revision the stored findings were computed from; fresh while it equals findingsRevision. */
+  declare findingsComputedRevision: CreationOptional<string>;
+  declare findingsConfigHash: CreationOptional<string | null>;
+  declare findingsComputedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare milestones?: NonAttribute<Milestone[]>;
@@ -59,6 +65,11 @@ export class Trial extends Model<InferAttributes<Trial>, InferCreationAttributes
         releaseOpenItems: { type: DataTypes.JSONB, allowNull: true },
         copiedFromId: { type: DataTypes.UUID, allowNull: true },
         photosRemovedAt: { type: DataTypes.DATE, allowNull: true },
+        // BIGINT comes back from pg as a string; compared as strings, never written by the app.
+        findingsRevision: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 1 },
+        findingsComputedRevision: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 0 },
+        findingsConfigHash: { type: DataTypes.STRING(64), allowNull: true },
+        findingsComputedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

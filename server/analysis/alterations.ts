@@ -2,6 +2,7 @@
 // per size and overall, amount summaries, and the three tests across sizes (rate trend, amount
 // slope, one size against the rest) plus the correlation with the tester's own body delta.
 import { mean, median, sampleStandardDeviation } from 'simple-statistics';
+import { naturalCompare, textCompare } from './collate';
 import { pearson } from './correlation';
 import { fisherExact } from './fisher';
 import { rateAboveP } from './binomial';
@@ -37,7 +38,7 @@ function key(kind: string, direction: Direction): string {
 /** Draft identifiers present in the reports, in natural order ("2" before "10"). */
 export function listDrafts(input: AnalysisInput): string[] {
   const drafts = [...new Set(input.reports.map((r) => r.draft))];
-  return drafts.sort((a, b) => a.localeCompare(b, 'en', { numeric: true }));
+  return drafts.sort(naturalCompare);
 }
 
 /**
@@ -86,7 +87,7 @@ export function kindDirections(testers: readonly DraftTester[]): { kind: string;
     }
   }
   return [...seen.values()].sort(
-    (a, b) => a.kind.localeCompare(b.kind) || a.direction.localeCompare(b.direction),
+    (a, b) => textCompare(a.kind, b.kind) || textCompare(a.direction, b.direction),
   );
 }
 
@@ -112,17 +113,44 @@ export function alterationStats(
   t: Thresholds,
 ): AlterationStats {
   const k = key(kind, direction);
+  const addKey = key(kind, 'add');
+  const removeKey = key(kind, 'remove');
   const N = testers.length;
-  const makers = testers.filter((x) => x.amounts.has(k));
-  const K = makers.length;
-  const kindMakers = testers.filter((x) => x.kinds.has(kind)).length;
 
-  // Per size: n, k, interval and amounts.
-  const perSize = sizes.map((size, index) => {
-    const inSize = testers.filter((x) => x.sizeIndex === index);
-    const amounts = inSize.filter((x) => x.amounts.has(k)).map((x) => x.amounts.get(k) as number);
-    return { size, index, n: inSize.length, k: amounts.length, amounts };
-  });
+  // One pass over the testers, in their order (so every sum adds up in the same order as before):
+  // per size n, k and amounts; the makers' size order and amounts; every tester's amount (0 for no
+  // change); the net change of the kind against the tester's own body difference.
+  const perSize = sizes.map((size, index) => ({ size, index, n: 0, k: 0, amounts: [] as number[] }));
+  const xs: number[] = [];
+  const ys: number[] = [];
+  const everyX: number[] = new Array(N);
+  const everyY: number[] = new Array(N);
+  const pairX: number[] = [];
+  const pairY: number[] = [];
+  let kindMakers = 0;
+  for (let i = 0; i < N; i += 1) {
+    const x = testers[i];
+    const amount = x.amounts.get(k);
+    const cell = perSize[x.sizeIndex];
+    if (cell) cell.n += 1;
+    if (amount !== undefined) {
+      if (cell) {
+        cell.k += 1;
+        cell.amounts.push(amount);
+      }
+      xs.push(x.sizeIndex);
+      ys.push(amount);
+    }
+    if (x.kinds.has(kind)) kindMakers += 1;
+    everyX[i] = x.sizeIndex;
+    everyY[i] = amount ?? 0;
+    const delta = x.bodyDeltaMm[kind];
+    if (typeof delta === 'number' && Number.isFinite(delta)) {
+      pairX.push(delta);
+      pairY.push((x.amounts.get(addKey) ?? 0) + (x.amounts.get(removeKey) ?? 0));
+    }
+  }
+  const K = xs.length;
 
   // One size against the rest, one-sided (this size's rate is higher). The correction for the
   // number of sizes and tests happens over the whole kind (classify.ts), not here.
@@ -146,8 +174,6 @@ export function alterationStats(
   const trend = cochranArmitage(perSize.map((s) => ({ score: s.index, n: s.n, k: s.k })));
 
   // Amount on size order, only with enough amounts over enough sizes to speak of a line.
-  const xs = makers.map((x) => x.sizeIndex);
-  const ys = makers.map((x) => x.amounts.get(k) as number);
   const distinctSizes = new Set(xs).size;
   let amountSlope: AlterationStats['amountSlope'] = null;
   if (K >= t.slopeMinAmounts && distinctSizes >= t.slopeMinSizes) {
@@ -159,19 +185,16 @@ export function alterationStats(
 
   // Every tester's amount in this direction (0 for no change) on the size order: one test that uses
   // both how many change and by how much.
-  const everyone = olsFit(testers.map((x) => x.sizeIndex), testers.map((x) => x.amounts.get(k) ?? 0));
+  const everyone = olsFit(everyX, everyY);
   const sizeTrend = everyone ? { slopeMmPerSize: everyone.slope, p: everyone.slopeP } : null;
 
   // The tester's net change of this kind (added minus taken out; 0 for no change) against their own
   // body difference for the measurement the kind answers to, over every tester whose difference is
   // known. Personal fit is a property of the kind: testers above the chart add, those below take
   // out, those near it change nothing, so both directions and the testers who changed nothing count.
-  const pairs = testers
-    .map((x) => [x.bodyDeltaMm[kind], (x.amounts.get(`${kind}|add`) ?? 0) + (x.amounts.get(`${kind}|remove`) ?? 0)] as const)
-    .filter((p): p is readonly [number, number] => typeof p[0] === 'number' && Number.isFinite(p[0]));
   let bodyCorrelation: AlterationStats['bodyCorrelation'] = null;
-  if (pairs.length >= t.personalFitMinPairs) {
-    bodyCorrelation = pearson(pairs.map((p) => p[0]), pairs.map((p) => p[1]));
+  if (pairX.length >= t.personalFitMinPairs) {
+    bodyCorrelation = pearson(pairX, pairY);
   }
 
   return {

@@ -1,5 +1,5 @@
 // The only module that talks to jstat: every special function (normal and Student t CDFs and
-// quantiles, hypergeometric probabilities) comes from the library, none is hand-written.
+// quantiles, log-gamma for hypergeometric probabilities) comes from the library, none is hand-written.
 import { jStat } from 'jstat';
 
 export function normalCdf(x: number): number {
@@ -32,17 +32,44 @@ export function studentTTwoSidedP(t: number, df: number): number {
   return Math.min(1, Math.max(0, 2 * studentTCdf(-Math.abs(t), df)));
 }
 
+// ln(n!) for the hypergeometric: up to 170! (the largest factorial a double holds) the logarithm of
+// the factorial itself, exact to the last bits, so small tables keep every digit; above it jstat's
+// log-gamma, ln(n!) = lnΓ(n + 1). Kept for the sizes a trial reaches, so a probability costs three
+// look-ups instead of a product over the table.
+const LN_FACTORIAL: number[] = (() => {
+  const out = [0];
+  let f = 1;
+  for (let i = 1; i <= 170; i += 1) {
+    f *= i;
+    out.push(Math.log(f));
+  }
+  return out;
+})();
+const LN_FACTORIAL_CACHED = 1 << 17;
+
+function lnFactorial(n: number): number {
+  if (n >= LN_FACTORIAL_CACHED) return jStat.gammaln(n + 1);
+  for (let i = LN_FACTORIAL.length; i <= n; i += 1) LN_FACTORIAL.push(jStat.gammaln(i + 1));
+  return LN_FACTORIAL[n];
+}
+
+/** ln C(n, k). */
+export function lnChoose(n: number, k: number): number {
+  return lnFactorial(n) - lnFactorial(k) - lnFactorial(n - k);
+}
+
 /**
  * P(X = k) for X hypergeometric: `draws` items taken from `population` items of which
- * `successes` are successes.
+ * `successes` are successes: C(successes, k) · C(population − successes, draws − k) / C(population, draws),
+ * in logarithms.
  */
 export function hypergeometricPdf(k: number, population: number, successes: number, draws: number): number {
   const lo = Math.max(0, draws - (population - successes));
   const hi = Math.min(draws, successes);
   if (!Number.isInteger(k) || k < lo || k > hi) return 0;
-  // jstat returns 1 trivially only for non-degenerate cases; handle the single-table case here.
+  // The single possible table.
   if (lo === hi) return 1;
-  return jStat.hypgeom.pdf(k, population, successes, draws);
+  return Math.exp(lnChoose(successes, k) + lnChoose(population - successes, draws - k) - lnChoose(population, draws));
 }
 
 /**

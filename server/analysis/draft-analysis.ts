@@ -1,5 +1,6 @@
 import { alterationStats, draftTesters, kindDirections, type AlterationStats } from './alterations';
 import { classifyAlteration, judgeDraft } from './classify';
+import { textCompare } from './collate';
 import { resolveThresholds, type Thresholds } from './thresholds';
 import type { AnalysisInput, DraftAnalysis, Finding, FindingClass } from './types';
 
@@ -61,8 +62,8 @@ export function analyzeDraft(input: AnalysisInput, draft: string, thresholds?: P
     (a, b) =>
       CLASS_ORDER.indexOf(a.class) - CLASS_ORDER.indexOf(b.class) ||
       b.rate - a.rate ||
-      a.kind.localeCompare(b.kind) ||
-      a.direction.localeCompare(b.direction),
+      textCompare(a.kind, b.kind) ||
+      textCompare(a.direction, b.direction),
   );
   return { draft, testers: testers.length, findings };
 }

@@ -13,8 +13,9 @@ export interface FisherResult {
  * Fisher's exact test for the 2×2 table
  *     [ a  b ]   (row 1: a successes, b failures)
  *     [ c  d ]   (row 2: c successes, d failures)
- * conditioning on the margins, so X = a is hypergeometric. p-values are sums of jstat's
- * hypergeometric probabilities over the tables as or more extreme than the observed one.
+ * conditioning on the margins, so X = a is hypergeometric. p-values are sums of the
+ * hypergeometric probabilities (through log-gamma, distributions.ts) over the tables as or more
+ * extreme than the observed one.
  */
 export function fisherExact(a: number, b: number, c: number, d: number): FisherResult {
   for (const v of [a, b, c, d]) {

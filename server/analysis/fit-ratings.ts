@@ -9,6 +9,7 @@
 // cell that is off on average is a hint to look at, not a finding.
 import { mean, sampleStandardDeviation } from 'simple-statistics';
 import { signTest } from './binomial';
+import { textCompare } from './collate';
 import { studentTQuantile } from './distributions';
 import { below, holmAdjust } from './multiple-testing';
 import { olsFit } from './regression';
@@ -58,7 +59,7 @@ export function fitRatingCells(input: AnalysisInput, draft: string, thresholds?:
     cell.values.push(r.value);
     cells.set(k, cell);
   }
-  const list = [...cells.values()].sort((a, b) => (order.get(a.size) ?? 0) - (order.get(b.size) ?? 0) || a.area.localeCompare(b.area));
+  const list = [...cells.values()].sort((a, b) => (order.get(a.size) ?? 0) - (order.get(b.size) ?? 0) || textCompare(a.area, b.area));
   // Holm over the sizes of each area.
   const adjusted = new Map<string, number>();
   for (const area of new Set(list.map((c) => c.area))) {
@@ -95,7 +96,7 @@ export function fitRatingCells(input: AnalysisInput, draft: string, thresholds?:
 export function fitRatingAreas(input: AnalysisInput, draft: string, thresholds?: Partial<Thresholds>): FitRatingArea[] {
   const t = resolveThresholds(thresholds);
   const { rows } = ratingsOf(input, draft);
-  const areas = [...new Set(rows.map((r) => r.area))].sort((a, b) => a.localeCompare(b));
+  const areas = [...new Set(rows.map((r) => r.area))].sort(textCompare);
   const raw = areas.map((area) => {
     const own = rows.filter((r) => r.area === area);
     const values = own.map((r) => r.value);

@@ -1,5 +1,6 @@
 // Instruction steps reported unclear (DESIGN.md §8). One tester's confusion is noted; two or more
 // testers stuck on the same step is a flag for the instructions.
+import { naturalCompare } from './collate';
 import { resolveThresholds, type Thresholds } from './thresholds';
 import type { AnalysisInput, UnclearStep } from './types';
 
@@ -18,8 +19,8 @@ export function unclearSteps(input: AnalysisInput, draft: string, thresholds?: P
     .map(([step, testers]) => ({
       step,
       count: testers.size,
-      testers: [...testers].sort((a, b) => a.localeCompare(b, 'en', { numeric: true })),
+      testers: [...testers].sort(naturalCompare),
       flagged: testers.size >= t.unclearStepMinTesters,
     }))
-    .sort((a, b) => b.count - a.count || a.step.localeCompare(b.step, 'en', { numeric: true }));
+    .sort((a, b) => b.count - a.count || naturalCompare(a.step, b.step));
 }

@@ -23,5 +23,7 @@ declare module 'jstat' {
     hypgeom: JStatHypergeometric;
     /** Regularized incomplete beta function I_x(a, b). */
     ibeta(x: number, a: number, b: number): number;
+    /** ln Γ(x). */
+    gammaln(x: number): number;
   };
 }

@@ -1,31 +1,19 @@
 import { createHash } from 'node:crypto';
 import type { z } from 'zod';
-import {
-  Application,
-  Enrollment,
-  FabricNeed,
-  FindingNote,
-  FindingSnapshot,
-  FindingTriage,
-  OtherAlterationMapping,
-  PatternSize,
-  Report,
-  Studio,
-  type Trial,
-  User,
-} from '../../db/models';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { Enrollment, FindingNote, FindingSnapshot, FindingTriage, OtherAlterationMapping, Report, Studio, Trial, User } from '../../db/models';
 import { toCsv } from '../csv';
 import { AnalysisRequestError, changeTable, findingName, listDrafts, readerFor, renderOutput, runAnalysis, type AnalysisInput } from '../analysis';
 import type { AnalysisOutput, ChangeRow } from '../analysis/types';
-import { ALTERATION_KINDS, alterationKindsFor } from '../domain/alterations';
+import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { otherTextKey, type findingNoteSchema, type otherMappingSchema, type triageSchema } from '../domain/schemas/findings';
 import { countedAlterations, countedUnclearSteps } from '../domain/schemas/reports';
 import { studioThresholds } from '../domain/studio-settings';
 import { badRequest } from '../errors';
 import type { Thresholds } from '../analysis/thresholds';
-
-const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement]));
+import { analysisInputFor, otherMappingsOf } from './findings-input';
+import { refreshQueued } from './findings-jobs';
 
 /**
  * Bumped whenever the engine's rules or output change, so stored snapshots from an older engine
@@ -33,94 +21,27 @@ const MEASUREMENT_OF = new Map(ALTERATION_KINDS.map((k) => [k.key, k.measurement
  */
 const ENGINE_VERSION = 3;
 
-/** How a coordinator read each "other" alteration of a trial: its words (as otherTextKey) → kind. */
-export async function otherMappingsOf(trialId: string): Promise<Map<string, string>> {
-  return new Map((await OtherAlterationMapping.findAll({ where: { trialId } })).map((m) => [m.textKey, m.kind]));
-}
-
-/**
- * The reports that speak for each tester and draft: the submitted final report of that draft, or,
- * when the tester has none for it, their submitted check-in on that draft (a toile tells the
- * same fit story earlier). So a check-in on draft 1 and a final report on draft 2 give the tester
- * a voice in both drafts, and nobody counts twice in one draft.
- */
-export function reportsPerDraft(reports: Report[]): Report[] {
-  const chosen = new Map<string, Report>();
-  for (const r of reports) {
-    if (!r.submittedAt) continue;
-    const draft = String(r.content.draftVersion ?? 1);
-    const held = chosen.get(draft);
-    if (!held || (held.stage === 'check-in' && r.stage === 'final')) chosen.set(draft, r);
-  }
-  return [...chosen.values()];
-}
-
-/**
- * The engine's input from a trial's submitted reports (see reportsPerDraft): each tester's size
- * and draft, their alterations, and for each kind that answers to a body measurement the tester's
- * own difference from the chart (from the measurements copied into their application), so
- * personal fit can be told apart from a pattern problem.
- */
-export async function analysisInputFor(trial: Trial): Promise<AnalysisInput> {
-  const sizes = await PatternSize.findAll({ where: { patternId: trial.patternId }, order: [['position', 'ASC']] });
-  const sizeById = new Map(sizes.map((s) => [s.id, s]));
-  const enrollments = await Enrollment.findAll({
-    where: { trialId: trial.id },
-    include: [
-      { model: Report, as: 'reports', required: true },
-      { model: Application, as: 'application' },
-    ],
-  });
-  const mapped = await otherMappingsOf(trial.id);
-  const kindOf = (a: { kind: string; otherText: string }) => (a.kind === 'other' ? (mapped.get(otherTextKey(a.otherText)) ?? `other: ${a.otherText.trim()}`) : a.kind);
-  const reports: AnalysisInput['reports'] = [];
-  for (const e of enrollments) {
-    const size = sizeById.get(e.sizeId);
-    if (!size) continue;
-    const body = ((e as Enrollment & { application?: Application }).application?.profileSnapshot.measurementsMm ?? {}) as Record<string, number>;
-    for (const report of reportsPerDraft((e as Enrollment & { reports?: Report[] }).reports ?? [])) {
-      const c = report.content;
-      // The tester's own difference from the chart for every kind that answers to a measurement,
-      // whether or not they made it: personal fit compares those who changed nothing too.
-      const bodyDeltaMm: Record<string, number> = {};
-      for (const [kind, m] of MEASUREMENT_OF) {
-        if (m && typeof body[m] === 'number' && typeof size.bodyMm[m] === 'number') bodyDeltaMm[kind] = body[m] - size.bodyMm[m];
-      }
-      for (const a of countedAlterations(c)) {
-        const kind = kindOf(a);
-        const m = MEASUREMENT_OF.get(kind);
-        if (m && typeof body[m] === 'number' && typeof size.bodyMm[m] === 'number') bodyDeltaMm[kind] = body[m] - size.bodyMm[m];
-      }
-      reports.push({
-        tester: e.id,
-        size: size.label,
-        draft: String(c.draftVersion ?? 1),
-        alterations: countedAlterations(c).map((a) => ({ kind: kindOf(a), amountMm: a.amountMm })),
-        ...(Object.keys(bodyDeltaMm).length ? { bodyDeltaMm } : {}),
-        ...(c.fit && Object.keys(c.fit).length ? { fit: c.fit as Record<string, number> } : {}),
-        ...(c.fabric?.widthMm && c.fabric.usedMm ? { fabric: { widthMm: c.fabric.widthMm, usedMm: c.fabric.usedMm, napped: c.fabric.napped } } : {}),
-        ...(countedUnclearSteps(c).length ? { unclearSteps: countedUnclearSteps(c).map((s) => s.step) } : {}),
-      });
-    }
-  }
-  const needs = await FabricNeed.findAll({ where: { patternId: trial.patternId } });
-  return {
-    sizes: sizes.map((s) => s.label),
-    reports,
-    ...(needs.length ? { fabricNeeds: needs.map((n) => ({ size: sizeById.get(n.sizeId)?.label ?? '?', widthMm: n.widthMm, needMm: n.lengthMm, napped: n.napped })) } : {}),
-  };
-}
+export { analysisInputFor, otherMappingsOf, reportsPerDraft } from './findings-input';
 
 type FindingKey = { kind: string; direction: 'add' | 'remove' };
 const keyOf = (f: FindingKey) => `${f.direction}\u0000${f.kind}`;
+const changeKey = (f: FindingKey) => `${f.kind}|${f.direction}`;
 
-/** Same input, same thresholds → same findings: the snapshot is reused while this hash holds. */
-function sourceHash(input: AnalysisInput, thresholds: Thresholds): string {
-  return createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, input, thresholds })).digest('hex');
+/**
+ * What a snapshot was computed from: the engine, the thresholds and the trial's revision (which
+ * the database bumps on every write the findings depend on), so no hash of the whole input is needed.
+ */
+function sourceHash(config: string, revision: string): string {
+  return createHash('sha256').update(`${config}:${revision}`).digest('hex');
 }
 
-async function thresholdsOf(trial: Trial): Promise<Thresholds> {
-  return studioThresholds((await Studio.findByPk(trial.studioId))?.settings);
+/** The engine and thresholds the stored findings were computed with; a change makes them stale. */
+function configHash(thresholds: Thresholds): string {
+  return createHash('sha256').update(JSON.stringify({ engine: ENGINE_VERSION, thresholds })).digest('hex');
+}
+
+async function thresholdsOf(trial: Pick<Trial, 'studioId'>, transaction?: Transaction): Promise<Thresholds> {
+  return studioThresholds((await Studio.findByPk(trial.studioId, { attributes: ['id', 'settings'], transaction }))?.settings);
 }
 
 function analyse(input: AnalysisInput, options: { draft?: string; compare?: [string, string] }, thresholds: Thresholds): AnalysisOutput {
@@ -132,36 +53,63 @@ function analyse(input: AnalysisInput, options: { draft?: string; compare?: [str
   }
 }
 
+/** The change table of every finding of a draft, keyed "kind|direction" (rows in table order). */
+function changesByFinding(input: AnalysisInput, draft: string, findings: AnalysisOutput['findings'], thresholds: Thresholds): Record<string, ChangeRow[]> {
+  const out: Record<string, ChangeRow[]> = {};
+  for (const row of changeTable(input, draft, findings, findings, thresholds)) (out[changeKey(row)] ??= []).push(row);
+  return out;
+}
+
+type Freshness = { revision: string; computedRevision: string; configHash: string | null; computedAt: Date | null };
+
+const isFresh = (f: Freshness, config: string) => String(f.computedRevision) === String(f.revision) && f.configHash === config;
+
 /**
  * Brings the stored snapshot of every draft of the trial up to date with its reports and the
  * studio's thresholds: a draft whose source changed is computed again, a draft left without
- * reports loses its snapshot. Called whenever reports, mappings or thresholds change.
+ * reports loses its snapshot, and the trial records the revision it is now current with. One
+ * recomputation per trial at a time (an advisory lock): a second caller waits, then finds the
+ * work done. The revision is read before the reports, so a write during the computation leaves
+ * the findings stale for the next run rather than labelled current.
  */
-export async function refreshFindings(trial: Trial): Promise<FindingSnapshot[]> {
-  const input = await analysisInputFor(trial);
-  const thresholds = await thresholdsOf(trial);
-  const hash = sourceHash(input, thresholds);
-  const drafts = listDrafts(input);
-  const stored = await FindingSnapshot.findAll({ where: { trialId: trial.id } });
-  for (const old of stored) if (!drafts.includes(old.draft)) await old.destroy();
-  const snapshots: FindingSnapshot[] = [];
-  for (const draft of drafts) snapshots.push(await snapshotOf(trial, input, thresholds, hash, draft, stored));
-  return snapshots;
-}
+export async function refreshFindings(trial: Pick<Trial, 'id' | 'patternId' | 'studioId'>): Promise<Freshness> {
+  const sequelize = Trial.sequelize!;
+  return sequelize.transaction(async (transaction) => {
+    await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('findings:' || $1))`, { bind: [trial.id], transaction });
+    const [state] = await sequelize.query<{ revision: string; computedRevision: string; configHash: string | null; computedAt: Date | null }>(
+      `SELECT findings_revision AS "revision", findings_computed_revision AS "computedRevision", findings_config_hash AS "configHash",
+              findings_computed_at AS "computedAt" FROM trials WHERE id = $1`,
+      { bind: [trial.id], type: QueryTypes.SELECT, transaction },
+    );
+    if (!state) return { revision: '0', computedRevision: '0', configHash: null, computedAt: null };
+    const thresholds = await thresholdsOf(trial, transaction);
+    const config = configHash(thresholds);
+    if (isFresh(state, config)) return state;
 
-async function snapshotOf(trial: Trial, input: AnalysisInput, thresholds: Thresholds, hash: string, draft: string, stored?: FindingSnapshot[]) {
-  const held = stored ? stored.find((s) => s.draft === draft) : await FindingSnapshot.findOne({ where: { trialId: trial.id, draft } });
-  if (held?.sourceHash === hash) return held;
-  const result = analyse(input, { draft }, thresholds);
-  const fields = { sourceHash: hash, testers: result.testers, result, computedAt: new Date() };
-  if (held) return held.update(fields);
-  // Two requests may compute the same draft at once: the unique key keeps one row.
-  const [row] = await FindingSnapshot.upsert({ trialId: trial.id, draft, ...fields }, { conflictFields: ['trial_id', 'draft'] as never });
-  return row;
+    const input = await analysisInputFor(trial, transaction);
+    const hash = sourceHash(config, String(state.revision));
+    const drafts = listDrafts(input);
+    const stored = await FindingSnapshot.findAll({ where: { trialId: trial.id }, attributes: ['id', 'draft', 'sourceHash'], transaction });
+    for (const old of stored) if (!drafts.includes(old.draft)) await old.destroy({ transaction });
+    const now = new Date();
+    for (const draft of drafts) {
+      const held = stored.find((s) => s.draft === draft);
+      if (held?.sourceHash === hash) continue;
+      const result = analyse(input, { draft }, thresholds);
+      const fields = { sourceHash: hash, testers: result.testers, result, changes: changesByFinding(input, draft, result.findings, thresholds), reports: input.reports.length, computedAt: now };
+      if (held) await FindingSnapshot.update(fields, { where: { id: held.id }, transaction });
+      else await FindingSnapshot.upsert({ trialId: trial.id, draft, ...fields }, { conflictFields: ['trial_id', 'draft'] as never, transaction });
+    }
+    await sequelize.query(
+      'UPDATE trials SET findings_computed_revision = $2, findings_config_hash = $3, findings_computed_at = $4 WHERE id = $1',
+      { bind: [trial.id, state.revision, config, now], transaction },
+    );
+    return { revision: state.revision, computedRevision: state.revision, configHash: config, computedAt: now };
+  });
 }
 
 /** Safe to call after a tester's change: a failure to recompute is logged, never the tester's problem. */
-export async function refreshFindingsQuietly(trial: Trial): Promise<void> {
+export async function refreshFindingsQuietly(trial: Pick<Trial, 'id' | 'patternId' | 'studioId'>): Promise<void> {
   try {
     await refreshFindings(trial);
   } catch (error) {
@@ -197,16 +145,26 @@ function serializeNote(n: FindingNote) {
 export type ReaderUnits = { lengthUnit: 'in' | 'cm'; fabricUnit: 'yd' | 'm' };
 
 /**
- * Findings of one draft (default: the latest with reports) from the stored snapshot, computed
- * again first if the reports or the thresholds changed since; optionally compared with another
- * draft. Every finding carries the studio's triage state and notes; the findings the studio will
- * fix get the change table. Reasons are written in the reader's units.
+ * Findings of one draft (default: the latest with reports) from the stored snapshot, optionally
+ * compared with another draft. While the stored findings are current (the trial's revision) no
+ * report is loaded. When they are behind and a recomputation is waiting on the job queue, the
+ * stored ones are served with `pending: true` (the screen asks again until it is done); otherwise
+ * they are computed first. Every finding carries the studio's triage state and notes; the findings
+ * the studio will fix get the change table. Reasons are written in the reader's units.
  */
 export async function findingsFor(trial: Trial, options: { draft?: string; compare?: [string, string] }, units: ReaderUnits) {
-  const input = await analysisInputFor(trial);
-  if (input.reports.length === 0) return { input: { testers: 0 }, result: null, snapshot: null };
   const thresholds = await thresholdsOf(trial);
-  const drafts = listDrafts(input);
+  let state: Freshness = { revision: trial.findingsRevision, computedRevision: trial.findingsComputedRevision, configHash: trial.findingsConfigHash, computedAt: trial.findingsComputedAt };
+  let pending = false;
+  if (!isFresh(state, configHash(thresholds))) {
+    // Serve what is stored while the queue counts the newest reports; compute here when nothing
+    // would (no job waiting, new thresholds, or nothing stored yet).
+    if (state.computedAt && state.configHash === configHash(thresholds) && (await refreshQueued(trial.id))) pending = true;
+    else state = await refreshFindings(trial);
+  }
+  const computed = await FindingSnapshot.findAll({ where: { trialId: trial.id }, attributes: ['draft', 'reports'] });
+  if (computed.length === 0) return { input: { testers: 0 }, result: null, snapshot: null, pending, computedAt: state.computedAt };
+  const drafts = listDrafts({ sizes: [], reports: computed.map((c) => ({ tester: '', size: '', draft: c.draft, alterations: [] })) });
   for (const asked of [options.draft, ...(options.compare ?? [])]) {
     if (asked !== undefined && !drafts.includes(asked)) {
       const message = `draft "${asked}" has no reports; drafts with reports: ${drafts.join(', ')}`;
@@ -214,16 +172,27 @@ export async function findingsFor(trial: Trial, options: { draft?: string; compa
     }
   }
   const draft = options.draft ?? options.compare?.[0] ?? drafts[drafts.length - 1];
-  const snapshot = await snapshotOf(trial, input, thresholds, sourceHash(input, thresholds), draft);
   const decisions = await decisionsOf(trial.id);
-  const findings = snapshot.result.findings.map((f) => ({ ...f, ...decisions.of(f) }));
-  const willFix = findings.filter((f) => f.triage.state === 'will-fix').map((f) => ({ kind: f.kind, direction: f.direction }));
-  const result: AnalysisOutput = { ...snapshot.result, drafts, findings, changes: changeTable(input, draft, snapshot.result.findings, willFix, thresholds) };
-  if (options.compare) result.comparison = analyse(input, { compare: options.compare }, thresholds).comparison;
+  const willFixKeys = (await FindingTriage.findAll({ where: { trialId: trial.id, state: 'will-fix' }, attributes: ['kind', 'direction'] })).map(changeKey);
+  // Only the change rows of the findings the studio will fix leave the database.
+  const [row] = await Trial.sequelize!.query<{ result: AnalysisOutput; computedAt: Date; reports: number; wanted: Record<string, ChangeRow[]> | null }>(
+    `SELECT result, computed_at AS "computedAt", reports,
+            (SELECT jsonb_object_agg(k, changes -> k) FROM unnest($3::text[]) AS k WHERE changes ? k) AS wanted
+       FROM finding_snapshots WHERE trial_id = $1 AND draft = $2`,
+    { bind: [trial.id, draft, willFixKeys], type: QueryTypes.SELECT },
+  );
+  const snapshot = row.result;
+  const findings = snapshot.findings.map((f) => ({ ...f, ...decisions.of(f) }));
+  const changes = findings.filter((f) => f.triage.state === 'will-fix').flatMap((f) => row.wanted?.[changeKey(f)] ?? []);
+  const result: AnalysisOutput = { ...snapshot, drafts, findings, changes };
+  if (options.compare) result.comparison = analyse(await analysisInputFor(trial), { compare: options.compare }, thresholds).comparison;
   return {
-    input: { testers: input.reports.length },
+    input: { testers: row.reports },
     result: renderOutput(result, readerFor(units.lengthUnit, units.fabricUnit)),
-    snapshot: { draft: snapshot.draft, computedAt: snapshot.computedAt, thresholds },
+    snapshot: { draft, computedAt: row.computedAt, thresholds },
+    // Newer reports than these findings count are being counted by the job queue.
+    pending,
+    computedAt: state.computedAt,
   };
 }
 

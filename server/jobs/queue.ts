@@ -6,6 +6,7 @@ import { purgeDeletions } from '../storage/object-deletions';
 import type { Storage } from '../storage/storage';
 import { flushOutbox } from '../outbox/outbox.service';
 import { sweepPhotoRetention } from './photo-retention';
+import { startFindingsWorker, stopFindingsWorker, registerFindingsSender } from '../findings/findings-jobs';
 import { runMailTick } from './tick';
 
 // Any fixed number, the same for every Basted process (the migrations use another).
@@ -79,9 +80,31 @@ export async function startJobQueue(deps: OutboxDeps & { storage?: Storage; sequ
       if (options.log !== false && (result.photos || result.failed)) console.log('[jobs] photo retention', JSON.stringify(result));
     });
   }
+  // Findings are recomputed here, debounced per trial, rather than inside a tester's submission.
+  await startFindingsWorker(boss);
   return {
     boss,
     async stop() {
+      stopFindingsWorker();
+      await boss.stop({ graceful: true, timeout: 8_000 });
+    },
+  };
+}
+
+/**
+ * The API process's end of the queue: sends jobs (the findings recomputations after a submission)
+ * and runs no worker and no schedule, so no sweep ever shares the event loop that answers
+ * requests. The jobs run in the worker process (server/worker.ts).
+ */
+export async function startJobSender(options: { databaseUrl: string }): Promise<JobQueue> {
+  const boss = new PgBoss({ connectionString: options.databaseUrl, schema: 'pgboss', max: 2, application_name: 'basted-api', supervise: false, schedule: false });
+  boss.on('error', (error: unknown) => console.error('[jobs]', error));
+  await boss.start();
+  await registerFindingsSender(boss);
+  return {
+    boss,
+    async stop() {
+      stopFindingsWorker();
       await boss.stop({ graceful: true, timeout: 8_000 });
     },
   };

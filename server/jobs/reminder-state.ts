@@ -37,3 +37,43 @@ export async function reminderObsolete(row: { enrollmentId: string | null; miles
   if (!due || !row.dueAt || due.getTime() !== row.dueAt.getTime()) return 'the due date has changed';
   return null;
 }
+
+/**
+ * reminderObsolete for a batch of reminder rows at once (the outbox's flush): their enrolments with
+ * trial and milestones in one query, the submitted stages in another; the same reasons, by row id.
+ */
+export async function remindersObsolete(rows: { id: string; enrollmentId: string | null; milestoneKind: string | null; dueAt: Date | null }[]): Promise<Map<string, string | null>> {
+  const out = new Map<string, string | null>();
+  const ids = [...new Set(rows.map((r) => r.enrollmentId).filter((id): id is string => Boolean(id)))];
+  if (ids.length === 0) {
+    for (const row of rows) out.set(row.id, 'the enrollment no longer exists');
+    return out;
+  }
+  const enrollments = await Enrollment.findAll({
+    where: { id: ids },
+    attributes: ['id', 'status', 'dueOverrides', 'trialId'],
+    include: [{ model: Trial, as: 'trial', attributes: ['id', 'state'], include: [{ model: Milestone, as: 'milestones', attributes: ['id', 'kind', 'dueAt'] }] }],
+  });
+  const byId = new Map(enrollments.map((e) => [e.id, e]));
+  const submitted = new Set(
+    (await Report.findAll({ where: { enrollmentId: ids, submittedAt: { [Op.ne]: null } }, attributes: ['enrollmentId', 'stage'] })).map((r) => `${r.enrollmentId}|${r.stage}`),
+  );
+  for (const row of rows) {
+    const enrollment = row.enrollmentId ? byId.get(row.enrollmentId) : undefined;
+    if (!row.enrollmentId || !row.milestoneKind || !enrollment || !enrollment.trial) {
+      out.set(row.id, 'the enrollment no longer exists');
+      continue;
+    }
+    const kind = row.milestoneKind as MilestoneKind;
+    const stage = STAGE_OF[kind];
+    // The same order of reasons as reminderObsolete.
+    if (stage && submitted.has(`${enrollment.id}|${stage}`)) out.set(row.id, 'the tester has submitted it');
+    else if (enrollment.status !== 'active') out.set(row.id, 'the tester is no longer active in the trial');
+    else if (!(REMINDING_TRIAL_STATES as readonly string[]).includes(enrollment.trial.state)) out.set(row.id, 'the trial is closed');
+    else {
+      const due = dueFor(enrollment, enrollment.trial.milestones ?? [], kind);
+      out.set(row.id, !due || !row.dueAt || due.getTime() !== row.dueAt.getTime() ? 'the due date has changed' : null);
+    }
+  }
+  return out;
+}

@@ -21,13 +21,20 @@ export type PlannedReminder = { stage: ReminderStage; sendAt: Date; until: Date 
 
 /** A zone the engine knows, else UTC: a bad stored value must not stop everyone's reminders. */
 export function safeZone(timeZone: string): string {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone });
-    return timeZone;
-  } catch {
-    return 'UTC';
+  // Known per zone once: building a formatter to test a zone cost more than the rest of a reminder.
+  let known = ZONES.get(timeZone);
+  if (known === undefined) {
+    try {
+      new Intl.DateTimeFormat('en', { timeZone });
+      known = timeZone;
+    } catch {
+      known = 'UTC';
+    }
+    ZONES.set(timeZone, known);
   }
+  return known;
 }
+const ZONES = new Map<string, string>();
 
 /** The calendar date (YYYY-MM-DD) of an instant in a zone. */
 export function localDate(instant: Date, timeZone: string): string {

@@ -1,6 +1,6 @@
 import type { OutboxDeps, Settled } from '../outbox/outbox.service';
 import { failStaleClaims, flushOutbox } from '../outbox/outbox.service';
-import { sweepDigests, sweepReminders } from './reminders';
+import { activeEnrollments, sweepDigests, sweepReminders } from './reminders';
 
 export type TickResult = {
   at: string;
@@ -18,8 +18,10 @@ export type TickResult = {
  */
 export async function runMailTick(deps: OutboxDeps, now: Date = new Date()): Promise<TickResult> {
   const staleFailed = await failStaleClaims();
-  const reminders = await sweepReminders(deps.config, now);
-  const digests = await sweepDigests(deps.config, now);
+  // One load of the active enrolments serves both sweeps.
+  const loaded = await activeEnrollments(now);
+  const reminders = await sweepReminders(deps.config, now, loaded);
+  const digests = await sweepDigests(deps.config, now, loaded);
   const delivered = await flushOutbox(deps, now);
   return { at: now.toISOString(), staleFailed, reminders, digests, delivered };
 }

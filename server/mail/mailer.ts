@@ -28,6 +28,11 @@ export function createMailer(config: SmtpSettings): Mailer {
     auth: config.user ? { user: config.user, pass: config.password ?? '' } : undefined,
     connectionTimeout: 5000,
     greetingTimeout: 5000,
+    // A few kept-open connections carry every message (one new connection per message managed
+    // about 9 a second); the outbox bounds how many wait here at once (OUTBOX_IN_FLIGHT).
+    pool: true,
+    maxConnections: 5,
+    maxMessages: 1000,
   });
   return {
     async send(mail) {

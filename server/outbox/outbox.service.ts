@@ -4,7 +4,7 @@ import { OutboxMessage, User } from '../../db/models';
 import type { MailCategory } from '../../db/models/outbox-message';
 import type { Config } from '../config';
 import { conflict, notFound } from '../errors';
-import { reminderObsolete } from '../jobs/reminder-state';
+import { reminderObsolete, remindersObsolete } from '../jobs/reminder-state';
 import type { Mailer } from '../mail/mailer';
 import { isOptional, OPTIONAL_KINDS, optOutUrl, type OptionalKind } from '../mail/opt-out';
 import type { MailContent, OptOut } from '../mail/templates';
@@ -63,10 +63,11 @@ const skippedReason = (category: MailCategory) => `Not sent: the recipient turne
 export async function enqueue(
   deps: Pick<OutboxDeps, 'config'>,
   message: NewMessage,
-  options: { now?: Date; transaction?: Transaction } = {},
+  options: { now?: Date; transaction?: Transaction; preferenceOff?: boolean; reload?: boolean } = {},
 ): Promise<OutboxMessage | null> {
   const now = options.now ?? new Date();
-  const off = await preferenceOff(message.to.id, message.category, options.transaction);
+  // A sweep that loaded the recipient already knows their choice: no lookup per message.
+  const off = options.preferenceOff ?? (await preferenceOff(message.to.id, message.category, options.transaction));
   const optOut = optOutFor(deps.config, message.to.id, message.category);
   // RFC 8058 one-click unsubscribe headers, so mail programs can offer the same opt-out.
   const headers: Record<string, string> = {
@@ -106,7 +107,10 @@ export async function enqueue(
     },
   );
   const id = (rows as { id: string }[])[0]?.id;
-  return id ? OutboxMessage.findByPk(id, { transaction: options.transaction }) : null;
+  if (!id) return null;
+  // A sweep recording thousands only needs to know what became of each: no read back.
+  if (options.reload === false) return OutboxMessage.build({ id, status: off ? 'skipped' : 'queued' } as never, { isNewRecord: false });
+  return OutboxMessage.findByPk(id, { transaction: options.transaction });
 }
 
 function describeError(error: unknown): string {
@@ -114,15 +118,39 @@ function describeError(error: unknown): string {
   return text.slice(0, 1000) || 'unknown error';
 }
 
-/** Settles a claimed row: sent, skipped, cancelled, or back in the queue / failed after an error. */
-async function attempt(deps: OutboxDeps, row: OutboxMessage, now: Date): Promise<OutboxMessage> {
+/** What a batch of claimed rows needs to know before sending, read in a few queries for the whole batch. */
+type Known = { off: Map<string, boolean>; obsolete: Map<string, string | null> };
+
+async function knownFor(rows: OutboxMessage[]): Promise<Known> {
+  const off = new Map<string, boolean>();
+  const ids = [...new Set(rows.map((r) => r.recipientId).filter((id): id is string => Boolean(id)))];
+  if (ids.length) {
+    const users = await User.findAll({ where: { id: ids }, attributes: ['id', 'mailReminders', 'mailTrialNews', 'mailDigest'] });
+    const byId = new Map(users.map((u) => [u.id, u]));
+    for (const row of rows) {
+      if (!row.recipientId || !isOptional(row.category)) continue;
+      const user = byId.get(row.recipientId);
+      off.set(row.id, Boolean(user && !user[OPTIONAL_KINDS[row.category as OptionalKind].field]));
+    }
+  }
+  const obsolete = await remindersObsolete(rows.filter((r) => r.category === 'reminders' && r.enrollmentId));
+  return { off, obsolete };
+}
+
+/**
+ * Settles a claimed row: sent, skipped, cancelled, or back in the queue / failed after an error.
+ * With `known` (a flush of a batch) the recipient's choice and the reminder's state come from the
+ * batch's look-ups and the settled row is not read back.
+ */
+async function attempt(deps: OutboxDeps, row: OutboxMessage, now: Date, known?: Known): Promise<OutboxMessage> {
   const settle = async (fields: Partial<OutboxMessage>) => {
     await OutboxMessage.update({ ...fields, claimedAt: null }, { where: { id: row.id, status: 'sending' } });
+    if (known) return row.set({ ...fields, claimedAt: null });
     return (await OutboxMessage.findByPk(row.id))!;
   };
-  if (await preferenceOff(row.recipientId, row.category)) return settle({ status: 'skipped', lastError: skippedReason(row.category) });
+  if (known ? known.off.get(row.id) : await preferenceOff(row.recipientId, row.category)) return settle({ status: 'skipped', lastError: skippedReason(row.category) });
   if (row.category === 'reminders' && row.enrollmentId) {
-    const why = await reminderObsolete(row);
+    const why = known ? (known.obsolete.get(row.id) ?? null) : await reminderObsolete(row);
     if (why) return settle({ status: 'cancelled', lastError: `Not sent: ${why}.` });
   }
   if (row.text === null) return settle({ status: 'failed', lastError: 'The content of this message is no longer kept.' });
@@ -203,16 +231,30 @@ export async function failStaleClaims(): Promise<number> {
 
 export type Settled = { id: string; to: string; template: string; subject: string; status: string; lastError: string | null };
 
-/** Delivers every message that is due, in batches, until none is left; says what became of each. */
-export async function flushOutbox(deps: OutboxDeps, now = new Date(), batch = 50): Promise<Settled[]> {
+/** Messages handed to the mail transport at once: enough to keep its pooled connections busy. */
+export const OUTBOX_IN_FLIGHT = 10;
+
+/**
+ * Delivers every message that is due, in claimed batches, until none is left (no cap on rounds:
+ * a due evening of thousands of reminders leaves nothing behind), with at most OUTBOX_IN_FLIGHT
+ * messages in flight. A message that fails waits for its retry time, so it is not claimed again in
+ * the same run. Says what became of each.
+ */
+export async function flushOutbox(deps: OutboxDeps, now = new Date(), batch = 100): Promise<Settled[]> {
   const settledRows: Settled[] = [];
-  for (let round = 0; round < 100; round += 1) {
+  for (;;) {
     const rows = await claim({ now, limit: batch });
     if (rows.length === 0) break;
-    for (const row of rows) {
-      const s = await attempt(deps, row, now);
-      settledRows.push({ id: s.id, to: s.recipientEmail, template: s.template, subject: s.subject, status: s.status, lastError: s.status === 'sent' ? null : s.lastError });
-    }
+    const known = await knownFor(rows);
+    let next = 0;
+    const lane = async () => {
+      while (next < rows.length) {
+        const row = rows[next++];
+        const s = await attempt(deps, row, now, known);
+        settledRows.push({ id: s.id, to: s.recipientEmail, template: s.template, subject: s.subject, status: s.status, lastError: s.status === 'sent' ? null : s.lastError });
+      }
+    };
+    await Promise.all(Array.from({ length: Math.min(OUTBOX_IN_FLIGHT, rows.length) }, lane));
   }
   return settledRows;
 }

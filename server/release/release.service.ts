@@ -18,7 +18,8 @@ type TesterRow = Enrollment & { user?: User };
 
 /** The findings of every draft with reports, each with the studio's triage of its kind and direction. */
 async function findingsForChecklist(trial: Trial, fresh: boolean, transaction?: Transaction): Promise<ChecklistInput['findings']> {
-  const snapshots = fresh ? await refreshFindings(trial) : await FindingSnapshot.findAll({ where: { trialId: trial.id }, transaction });
+  if (fresh) await refreshFindings(trial);
+  const snapshots = await FindingSnapshot.findAll({ where: { trialId: trial.id }, transaction });
   const triage = await FindingTriage.findAll({ where: { trialId: trial.id }, transaction });
   const triageOf = (kind: string, direction: string) => {
     const t = triage.find((x) => x.kind === kind && x.direction === direction);

@@ -1,5 +1,5 @@
 import { toCsv } from '../csv';
-import { Draft, DraftFile, Enrollment, FindingTriage, Milestone, Photo, Report, Studio, User } from '../../db/models';
+import { Draft, DraftFile, Enrollment, FindingSnapshot, FindingTriage, Milestone, Photo, Report, Studio, User } from '../../db/models';
 import { findingName, readerFor } from '../analysis';
 import type { ChangeRow } from '../analysis/types';
 import { CLASS_LABELS, CLASSES_TO_TRIAGE, triageWords } from '../domain/finding-words';
@@ -44,7 +44,8 @@ export async function trialSummary(studioId: string, trialId: string, units: Rea
   });
 
   // Findings of every draft that has reports, each with its triage; the change table of the latest.
-  const snapshots = await refreshFindings(trial);
+  await refreshFindings(trial);
+  const snapshots = await FindingSnapshot.findAll({ where: { trialId: trial.id } });
   const triage = await FindingTriage.findAll({ where: { trialId: trial.id } });
   const triageOf = (kind: string, direction: string) => {
     const t = triage.find((x) => x.kind === kind && x.direction === direction);

@@ -8,6 +8,8 @@ import { countedAlterations, reportSaveSchema, reportSubmitSchema } from '../dom
 import { uuidParam } from '../middleware/uuid-param';
 import { validate } from '../middleware/validate';
 import { loadTrial } from '../trials/trials.service';
+import { readPage, sendPage } from '../pagination';
+import { trialReportsPage } from './report-pages';
 import { getReport, saveReport, StaleReportError, submitReport, trialReports, type Stage } from './reports.service';
 
 const stageParam = z.object({ stage: z.enum(['check-in', 'final'], { error: 'The report is the check-in or the final one' }) });
@@ -61,8 +63,11 @@ export function trialReportsRouter(): Router {
 
   router.get('/reports', read, uuidParam('trialId', 'trial'), validate({ query: listQuery }), async (req, res) => {
     const q = res.locals.query as z.output<typeof listQuery>;
+    const page = readPage(req);
     const trial = await load(res.locals.membership!.studioId, String(req.params.trialId));
-    res.json(await trialReports(trial, { stage: q.stage, sizeId: q.size, draft: q.draft, variant: q.variant }));
+    // A page at a time (Link: rel="next"), so a trial of thousands of testers is never one huge answer.
+    const { items, next } = await trialReportsPage(trial, { stage: q.stage, sizeId: q.size, draft: q.draft, variant: q.variant }, page.limit, page.after);
+    sendPage(req, res, items, next);
   });
 
   // One row per alteration (and one per report without any), for a spreadsheet.

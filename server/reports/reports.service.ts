@@ -5,7 +5,7 @@ import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { reportCompleteSchema, type ReportDraft, type ReportPart, type reportSaveSchema, type reportSubmitSchema } from '../domain/schemas/reports';
 import { AppError, badRequest, conflict, notFound, notYours } from '../errors';
-import { refreshFindingsQuietly } from '../findings/findings.service';
+import { scheduleFindingsRefresh } from '../findings/findings-jobs';
 import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { formatDue } from '../trials/trial-mail';
 
@@ -140,7 +140,7 @@ export async function saveReport(enrollmentId: string, stage: Stage, user: User,
     return row.update({ content: { ...row.content, ...changes }, version: row.version + 1 }, { transaction });
   });
   // A submitted report changed after the fact: the findings follow it.
-  if (report.submittedAt) await refreshFindingsQuietly(enrollment.trial);
+  if (report.submittedAt) await scheduleFindingsRefresh(enrollment.trialId);
   return stateOf(stage, report, { content: {}, parts: [] }, due, choices);
 }
 
@@ -181,7 +181,7 @@ export async function submitReport(enrollmentId: string, stage: Stage, user: Use
   } catch (error) {
     console.error('[reports] reminders not cancelled after a submission:', error instanceof Error ? error.message : error);
   }
-  await refreshFindingsQuietly(enrollment.trial);
+  await scheduleFindingsRefresh(enrollment.trialId);
   return stateOf(stage, report, { content: {}, parts: [] }, due, choices);
 }
 

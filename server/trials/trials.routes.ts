@@ -13,9 +13,11 @@ import { cancelObsoleteReminders } from '../outbox/outbox.service';
 import { trialMailRouter } from '../outbox/outbox.routes';
 import { sendPendingPoolInvitations } from '../community/pool.service';
 import { trialReleaseRouter } from '../release/release.routes';
+import { readPage, sendPage } from '../pagination';
 import { sendDecisionMail } from './trial-mail';
+import { applicationsPage, enrollmentsPage } from './trial-pages';
 import { serializeApplication, serializeTrial } from './trial-serializer';
-import { applicantsOf, coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
+import { coverageOf, createTrial, decide, listTrials, loadTrial, milestoneMap, proposalFor, updateTrial } from './trials.service';
 
 /** Mounted at /api/studios/:studioId/trials. */
 export function trialsRouter(deps: AppDeps): Router {
@@ -46,10 +48,11 @@ export function trialsRouter(deps: AppDeps): Router {
   });
 
   router.get('/:trialId/applications', manage, trial, async (req, res) => {
+    const page = readPage(req);
     const found = await loadTrial(studioId(res), trialId(req));
     const labels = new Map((found.pattern?.sizes ?? []).map((s) => [s.id, s.label]));
-    const { rows } = await applicantsOf(found);
-    res.json(rows.map((r) => serializeApplication(r, labels)));
+    const { rows, next } = await applicationsPage(found.id, page.limit, page.after);
+    sendPage(req, res, rows.map((r) => serializeApplication(r, labels)), next);
   });
 
   router.get('/:trialId/coverage', manage, trial, async (req, res) => {
@@ -70,11 +73,14 @@ export function trialsRouter(deps: AppDeps): Router {
 
   // The enrolled testers with their own dates (the trial's, or the ones granted to them).
   router.get('/:trialId/enrollments', manage, trial, async (req, res) => {
+    const page = readPage(req);
     const found = await loadTrial(studioId(res), trialId(req));
     const dues = milestoneMap(found);
     const labels = new Map((found.pattern?.sizes ?? []).map((s) => [s.id, s.label]));
-    const rows = await Enrollment.findAll({ where: { trialId: found.id }, include: [{ model: User, as: 'user' }], order: [['createdAt', 'ASC']] });
-    res.json(
+    const { rows, next } = await enrollmentsPage(found.id, page.limit, page.after);
+    sendPage(
+      req,
+      res,
       rows.map((e) => ({
         id: e.id,
         status: e.status,
@@ -84,6 +90,7 @@ export function trialsRouter(deps: AppDeps): Router {
           dues[kind] ? [{ kind, label: MILESTONE_LABELS[kind], dueAt: e.dueOverrides[kind] ?? dues[kind]!.toISOString(), extended: Boolean(e.dueOverrides[kind]) }] : [],
         ),
       })),
+      next,
     );
   });
 

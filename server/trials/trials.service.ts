@@ -31,24 +31,26 @@ async function uniqueSlug(title: string, transaction: Transaction): Promise<stri
   }
 }
 
+/**
+ * A trial of the studio with its milestones and its pattern's sizes (in order) and variants, in
+ * separate small queries: one join of all three multiplies the rows (milestones × sizes × variants).
+ */
 export async function loadTrial(studioId: string, trialId: string, transaction?: Transaction) {
-  const trial = await Trial.findOne({
-    where: { id: trialId, studioId },
-    include: [
-      { model: Milestone, as: 'milestones' },
-      {
-        model: Pattern,
-        as: 'pattern',
-        include: [
-          { model: PatternSize, as: 'sizes' },
-          { model: PatternVariant, as: 'variants' },
-        ],
-      },
-    ],
-    order: [[{ model: Pattern, as: 'pattern' }, { model: PatternSize, as: 'sizes' }, 'position', 'ASC']],
-    transaction,
-  });
+  const trial = await Trial.findOne({ where: { id: trialId, studioId }, transaction });
   if (!trial) throw notFound('trial');
+  // One after another: inside a transaction they share its one connection.
+  const milestones = await Milestone.findAll({ where: { trialId: trial.id }, transaction });
+  const pattern = await Pattern.findByPk(trial.patternId, { transaction });
+  if (pattern) {
+    const sizes = await PatternSize.findAll({ where: { patternId: pattern.id }, order: [['position', 'ASC']], transaction });
+    const variants = await PatternVariant.findAll({ where: { patternId: pattern.id }, transaction });
+    pattern.setDataValue('sizes' as never, sizes as never);
+    pattern.setDataValue('variants' as never, variants as never);
+    Object.assign(pattern, { sizes, variants });
+  }
+  trial.setDataValue('milestones' as never, milestones as never);
+  trial.setDataValue('pattern' as never, pattern as never);
+  Object.assign(trial, { milestones, pattern: pattern ?? undefined });
   return trial;
 }
 

@@ -47,6 +47,7 @@ const STAFF = ['grader', 'coordinator', 'owner'] as const;
 
 const MATRIX: Record<string, Row> = {
   'GET /api/health': { allow: EVERYONE, call: () => ({ path: '/api/health' }) },
+  'GET /api/health/live': { allow: EVERYONE, call: () => ({ path: '/api/health/live' }) },
   'POST /api/auth/sign-up': {
     allow: EVERYONE,
     call: () => ({ path: '/api/auth/sign-up', body: { name: 'New', email: uniqueEmail('m'), password: 'a long password' } }),

@@ -19,6 +19,8 @@ export type Captured = { to: string[]; subject: string; text: string; html: stri
  */
 export class MailCapture {
   readonly messages: Captured[] = [];
+  /** SMTP connections opened to this server so far. */
+  connections = 0;
   port = 0;
   private server: SMTPServer | null = null;
 
@@ -27,6 +29,10 @@ export class MailCapture {
       authOptional: true,
       disabledCommands: ['STARTTLS', 'AUTH'],
       logger: false,
+      onConnect: (_session, callback) => {
+        this.connections += 1;
+        callback();
+      },
       onData: (stream, _session, callback) => {
         simpleParser(stream)
           .then((parsed) => {
