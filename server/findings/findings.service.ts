@@ -8,7 +8,7 @@ import type { AnalysisOutput, ChangeRow } from '../analysis/types';
 import { alterationKindsFor } from '../domain/alterations';
 import type { GarmentCategory } from '../domain/garments';
 import { otherTextKey, type findingNoteSchema, type otherMappingSchema, type triageSchema } from '../domain/schemas/findings';
-import { countedAlterations, countedUnclearSteps } from '../domain/schemas/reports';
+import { countedAlterations } from '../domain/schemas/reports';
 import { studioThresholds } from '../domain/studio-settings';
 import { badRequest } from '../errors';
 import type { Thresholds } from '../analysis/thresholds';

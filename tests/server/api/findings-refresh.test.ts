@@ -45,7 +45,7 @@ describe('findings revision, fresh reads and the debounced recomputation job', (
     const put = await request(h.t.app)
       .put(`/api/me/enrollments/${enrollment.id}/reports/final`)
       .set(as(user))
-      .send({ sizeSewn: sizes[i % 3].label, draftVersion: 1, fit: { rise: -1 }, verdict: 'Short in the back rise.', alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 20, where: 'back', note: '', otherText: '' }] });
+      .send({ baseVersion: 0, changes: { sizeSewn: sizes[i % 3].label, draftVersion: 1, fit: { rise: -1 }, verdict: 'Short in the back rise.', alterations: [{ area: 'rise', kind: 'back-rise', amountMm: 20, where: 'back', note: '', otherText: '' }] } });
     expect(put.status).toBe(200);
     return request(h.t.app).post(`/api/me/enrollments/${enrollment.id}/reports/final/submit`).set(as(user));
   }

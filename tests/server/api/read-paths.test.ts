@@ -35,7 +35,8 @@ describe('the trial page reads: pages, indexes, health', () => {
       const user = await createUser(`pages-${i}`);
       const { enrollment } = await enrolTester(trial.id, user.id, sizes[i % 2].id);
       await Report.create({ enrollmentId: enrollment.id, stage: 'check-in', submittedAt: new Date(), content: { draftVersion: 1, alterations: [] } });
-      if (i % 2 === 0) await Report.create({ enrollmentId: enrollment.id, stage: 'final', submittedAt: null, content: { draftVersion: 1, alterations: [] } });
+      // Sent final reports (staff lists show sent reports only).
+      if (i % 2 === 0) await Report.create({ enrollmentId: enrollment.id, stage: 'final', submittedAt: new Date(), content: { draftVersion: 1, alterations: [] } });
     }
   });
   afterAll(() => t.close());
