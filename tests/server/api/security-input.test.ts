@@ -154,7 +154,8 @@ describe('logs, health and caching', () => {
     try {
       const health = await request(t.app).get('/api/health');
       expect(health.status).toBe(503);
-      expect(JSON.stringify(health.body)).not.toMatch(/127\.0\.0\.1|:9\b|ECONNREFUSED|localhost/);
+      // Timings ("ms":9) aside, no address or port of the parts behind it.
+      expect(JSON.stringify(health.body).replace(/"ms":\d+/g, '')).not.toMatch(/127\.0\.0\.1|:9\b|ECONNREFUSED|localhost/);
       expect(health.body.mail).toMatchObject({ ok: false, error: 'not answering' });
       const w = await createStudioWorld();
       const profile = await request(t.app).get('/api/me/profile').set({ Authorization: bearer(w.users.tester, t.config) });
