@@ -19,13 +19,17 @@ const node = {
   moduleNameMapper: alias,
   setupFiles: ['<rootDir>/tests/support/env.ts'],
 };
+// The projects that talk to PostgreSQL get a fresh database for the run (made once even when both
+// run: Jest runs a global set-up module once); unit and component tests need none.
+const withDatabase = {
+  globalSetup: '<rootDir>/tests/support/global-setup.js',
+  globalTeardown: '<rootDir>/tests/support/global-teardown.js',
+};
 
 module.exports = {
   // A cold first router render and a browser start take several seconds on two cores.
   testTimeout: 60_000,
   transform: nodeTransform,
-  globalSetup: '<rootDir>/tests/support/global-setup.js',
-  globalTeardown: '<rootDir>/tests/support/global-teardown.js',
   projects: [
     {
       ...node,
@@ -35,6 +39,7 @@ module.exports = {
     },
     {
       ...node,
+      ...withDatabase,
       displayName: 'api',
       testMatch: ['<rootDir>/tests/server/api/**/*.test.ts', '<rootDir>/tests/scripts/**/*.test.ts'],
     },
@@ -46,6 +51,7 @@ module.exports = {
     },
     {
       ...node,
+      ...withDatabase,
       displayName: 'e2e',
       testMatch: ['<rootDir>/tests/e2e/**/*.test.ts'],
     },
