@@ -10,6 +10,8 @@ declare global {
       session?: SessionClaims;
       /** The caller's membership of the studio in the URL, set by requireStudio(). */
       membership?: Membership;
+      /** The caller's membership (or none) of the studio named in the path, read with the session by authenticate(). */
+      sessionMembership?: { studioId: string; membership: Membership | null };
     }
   }
 }

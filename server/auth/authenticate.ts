@@ -1,6 +1,6 @@
 import type { RequestHandler, Response } from 'express';
-import { Op } from 'sequelize';
-import { RevokedSession, User } from '../../db/models';
+import { Op, QueryTypes, type ModelStatic, type Model } from 'sequelize';
+import { Membership, RevokedSession, User } from '../../db/models';
 import type { Config } from '../config';
 import { issueSessionToken, readSessionToken, SESSION_COOKIE, type SessionClaims } from './session-token';
 
@@ -36,6 +36,41 @@ export async function revokeSession(claims: SessionClaims, auth: Config['auth'])
   await RevokedSession.destroy({ where: { expiresAt: { [Op.lt]: new Date() } } });
 }
 
+/** `"column" AS "attribute"` for each attribute a model's default scope reads, with a table alias and a prefix. */
+function columnsOf(model: ModelStatic<Model>, alias: string, prefix: string, exclude: string[] = []): string {
+  return Object.entries(model.getAttributes())
+    .filter(([name]) => !exclude.includes(name))
+    .map(([name, attribute]) => `${alias}."${attribute.field ?? name}" AS "${prefix}${name}"`)
+    .join(', ');
+}
+
+let sessionSql: { user: string; member: string } | null = null;
+const STUDIO_PATH = /^\/studios\/([0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})(?:\/|$)/i;
+
+/**
+ * The session's user (without the password hash, as the default scope), whether the session was
+ * signed out, and — for a request to a studio's routes — the caller's membership of that studio,
+ * in one query: every signed-in request pays this, so it is one round trip with no model queries.
+ */
+async function lookUpSession(claims: SessionClaims, studioId: string | null) {
+  sessionSql ??= {
+    user: columnsOf(User as unknown as ModelStatic<Model>, 'u', 'u.', ['passwordHash']),
+    member: columnsOf(Membership as unknown as ModelStatic<Model>, 'm', 'm.'),
+  };
+  const [row] = await User.sequelize!.query<Record<string, unknown>>(
+    `SELECT ${sessionSql.user}, EXISTS (SELECT 1 FROM revoked_sessions WHERE session_id = $2) AS revoked${studioId ? `, ${sessionSql.member}` : ''}
+       FROM users u${studioId ? ' LEFT JOIN memberships m ON m.studio_id = $3 AND m.user_id = u.id' : ''}
+      WHERE u.id = $1`,
+    { bind: studioId ? [claims.sub, claims.sid, studioId] : [claims.sub, claims.sid], type: QueryTypes.SELECT },
+  );
+  if (!row) return null;
+  const part = (prefix: string) => Object.fromEntries(Object.entries(row).filter(([k]) => k.startsWith(prefix)).map(([k, v]) => [k.slice(prefix.length), v]));
+  const user = User.build(part('u.') as never, { isNewRecord: false, raw: true });
+  const member = studioId ? part('m.') : null;
+  const membership = member?.id ? Membership.build(member as never, { isNewRecord: false, raw: true }) : null;
+  return { user, revoked: Boolean(row.revoked), membership: studioId ? { studioId, membership } : null };
+}
+
 /**
  * Reads the session from the httpOnly cookie (the web app) or a Bearer header (API clients, which
  * send the same token back) and puts the user in res.locals.user and the claims in
@@ -53,13 +88,16 @@ export function authenticate(auth: Config['auth']): RequestHandler {
     if (!token) return next();
 
     const claims = readSessionToken(token, auth);
-    const [user, revoked] = claims ? await Promise.all([User.findByPk(claims.sub), RevokedSession.findByPk(claims.sid)]) : [null, null];
-    if (!claims || !user || revoked || user.sessionVersion !== claims.ver) {
+    const found = claims ? await lookUpSession(claims, STUDIO_PATH.exec(req.path)?.[1].toLowerCase() ?? null) : null;
+    if (!claims || !found || found.revoked || found.user.sessionVersion !== claims.ver) {
       if (!bearer) clearSessionCookie(res, auth);
       return next();
     }
+    const user = found.user;
     res.locals.user = user;
     res.locals.session = claims;
+    // requireStudio uses it for the studio in the path instead of asking again.
+    if (found.membership) res.locals.sessionMembership = found.membership;
     if (!bearer && Date.now() / 1000 - claims.iat > RENEW_AFTER_SECONDS) setSessionCookie(res, user, auth, claims.sid);
     next();
   };

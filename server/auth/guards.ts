@@ -23,7 +23,8 @@ export function requireStudio(action: Action, what: string): RequestHandler {
     if (!user) throw unauthenticated();
     const studioId = req.params.studioId;
     if (!uuid.safeParse(studioId).success) throw notFound('studio');
-    const membership = await Membership.findOne({ where: { studioId, userId: user.id } });
+    const known = res.locals.sessionMembership;
+    const membership = known && known.studioId === String(studioId).toLowerCase() ? known.membership : await Membership.findOne({ where: { studioId, userId: user.id } });
     if (!membership) throw notFound('studio');
     if (!can(membership.role, action)) {
       throw forbidden(`A ${ROLE_LABELS[membership.role].toLowerCase()} of this studio may not ${what}.`);

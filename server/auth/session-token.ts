@@ -1,4 +1,4 @@
-import { randomUUID } from 'node:crypto';
+import { createSecretKey, randomUUID, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import { z } from 'zod';
 import type { Config } from '../config';
@@ -20,8 +20,23 @@ const claimsSchema = z.object({
   exp: z.number().int(),
 });
 
+/**
+ * The signing key as a KeyObject, made once per secret: given a string, jsonwebtoken first tries
+ * to read it as a PEM public key (and throws) and then derives the secret key again, on every
+ * call — about a millisecond a request.
+ */
+const keys = new Map<string, KeyObject>();
+function keyOf(secret: string): KeyObject {
+  let key = keys.get(secret);
+  if (!key) {
+    key = createSecretKey(Buffer.from(secret, 'utf8'));
+    keys.set(secret, key);
+  }
+  return key;
+}
+
 export function issueSessionToken(user: { id: string; sessionVersion: number }, auth: Config['auth'], sessionId: string = randomUUID()): string {
-  return jwt.sign({ ver: user.sessionVersion, sid: sessionId }, auth.jwtSecret, {
+  return jwt.sign({ ver: user.sessionVersion, sid: sessionId }, keyOf(auth.jwtSecret), {
     subject: user.id,
     expiresIn: `${auth.sessionDays}d`,
     algorithm: 'HS256',
@@ -35,7 +50,7 @@ export function issueSessionToken(user: { id: string; sessionVersion: number }, 
  */
 export function readSessionToken(token: string, auth: Config['auth']): SessionClaims | null {
   try {
-    const verified = jwt.verify(token, auth.jwtSecret, { algorithms: ['HS256'] });
+    const verified = jwt.verify(token, keyOf(auth.jwtSecret), { algorithms: ['HS256'] });
     const claims = claimsSchema.safeParse(verified);
     if (!claims.success) return null;
     // A minute of leeway for clocks; anything longer was not issued by this configuration.

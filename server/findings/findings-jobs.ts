@@ -12,6 +12,8 @@ export const FINDINGS_QUEUE = 'findings-refresh';
 export const FINDINGS_DEBOUNCE_SECONDS = 3;
 
 let queue: PgBoss | null = null;
+/** When this process last queued a trial's recomputation (a job it knows is still waiting). */
+const sentAt = new Map<string, number>();
 
 /**
  * Starts this process's findings worker on the job queue. The queue's "stately" policy keeps at
@@ -40,6 +42,7 @@ export async function registerFindingsSender(boss: PgBoss): Promise<void> {
 
 export function stopFindingsWorker(): void {
   queue = null;
+  sentAt.clear();
 }
 
 /**
@@ -51,7 +54,15 @@ export function stopFindingsWorker(): void {
 export async function scheduleFindingsRefresh(trialId: string): Promise<void> {
   try {
     if (queue) {
-      await queue.send(FINDINGS_QUEUE, { trialId }, { singletonKey: trialId, startAfter: FINDINGS_DEBOUNCE_SECONDS });
+      // A job this process queued less than the debounce ago has not started yet (it waits the
+      // whole debounce), so it will read this write too: no need to ask the queue again.
+      const sent = sentAt.get(trialId);
+      if (sent !== undefined && Date.now() - sent < (FINDINGS_DEBOUNCE_SECONDS - 1) * 1000) return;
+      const id = await queue.send(FINDINGS_QUEUE, { trialId }, { singletonKey: trialId, startAfter: FINDINGS_DEBOUNCE_SECONDS });
+      if (id) {
+        if (sentAt.size > 10_000) sentAt.clear();
+        sentAt.set(trialId, Date.now());
+      }
       return;
     }
     const trial = await Trial.findByPk(trialId, { attributes: ['id', 'patternId', 'studioId'] });

@@ -1,4 +1,4 @@
-import { Op, type Transaction } from 'sequelize';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import type { z } from 'zod';
 import { Draft, Enrollment, Milestone, Pattern, PatternSize, PatternVariant, Report, Trial, User } from '../../db/models';
 import { alterationKindsFor } from '../domain/alterations';
@@ -54,8 +54,10 @@ async function prefillFor(enrollmentId: string, stage: Stage, transaction?: Tran
 
 type Owned = Awaited<ReturnType<typeof ownEnrollment>>;
 
+type StoredReport = Pick<Report, 'content' | 'version' | 'submittedAt' | 'prefilled'>;
+
 /** The report as the tester's form shows it; `version` is what the next save must name. */
-function stateOf(stage: Stage, report: Report | null, prefill: { content: ReportDraft; parts: ReportPart[] }, due: Date | null, choices: Awaited<ReturnType<typeof choicesFor>>) {
+function stateOf(stage: Stage, report: StoredReport | null, prefill: { content: ReportDraft; parts: ReportPart[] }, due: Date | null, choices: Awaited<ReturnType<typeof choicesFor>>) {
   const parts = report ? (report.prefilled as ReportPart[]) : prefill.parts;
   return {
     stage,
@@ -144,25 +146,73 @@ export async function saveReport(enrollmentId: string, stage: Stage, user: User,
   return stateOf(stage, report, { content: {}, parts: [] }, due, choices);
 }
 
+/** Everything a submission checks and answers with, read in one query (a submission is a hot path). */
+type SubmissionContext = {
+  userId: string;
+  status: Enrollment['status'];
+  trialId: string;
+  sizeId: string;
+  dueOverrides: Record<string, string>;
+  milestoneDue: Date | null;
+  content: ReportDraft | null;
+  version: number | null;
+  submittedAt: Date | null;
+  prefilled: ReportPart[] | null;
+  sizes: [string, string][] | null;
+  variants: string[] | null;
+  drafts: [number, string, number][] | null;
+};
+
+async function submissionContext(enrollmentId: string, stage: Stage): Promise<SubmissionContext | null> {
+  const [row] = await Report.sequelize!.query<SubmissionContext>(
+    `SELECT e.user_id AS "userId", e.status, e.trial_id AS "trialId", e.size_id AS "sizeId", e.due_overrides AS "dueOverrides",
+            (SELECT m.due_at FROM milestones m WHERE m.trial_id = e.trial_id AND m.kind = $3 LIMIT 1) AS "milestoneDue",
+            r.content, r.version, r.submitted_at AS "submittedAt", r.prefilled,
+            (SELECT json_agg(json_build_array(s.id, s.label) ORDER BY s.position) FROM pattern_sizes s WHERE s.pattern_id = t.pattern_id) AS sizes,
+            (SELECT json_agg(v.name ORDER BY v.name) FROM pattern_variants v WHERE v.pattern_id = t.pattern_id) AS variants,
+            (SELECT json_agg(json_build_array(d.version, d.change_note, floor(extract(epoch FROM d.created_at) * 1000)) ORDER BY d.version)
+               FROM drafts d WHERE d.pattern_id = t.pattern_id) AS drafts
+       FROM enrollments e
+       JOIN trials t ON t.id = e.trial_id
+       LEFT JOIN reports r ON r.enrollment_id = e.id AND r.stage = $2
+      WHERE e.id = $1`,
+    { bind: [enrollmentId, stage, MILESTONE_OF[stage]], type: QueryTypes.SELECT },
+  );
+  return row ?? null;
+}
+
 /**
- * Submits the report, complete and on time, in one transaction with everything a submission
- * changes (the submission time, the enrolment finished by a final report): it all happens or
- * none of it does. Submitting again changes nothing, so a retry after an error is safe. With a
- * `version`, a report saved elsewhere since the tester last saw it is not submitted unseen.
- * The answer is the report exactly as stored.
+ * Submits the report, complete and on time, with everything a submission changes (the submission
+ * time, the enrolment finished by a final report) in one statement: it all happens or none of it
+ * does. Submitting again changes nothing, so a retry after an error is safe. With a `version`, a
+ * report saved elsewhere since the tester last saw it is not submitted unseen.
+ *
+ * The checks run on the report as read, and the write applies only to that same version of it,
+ * with the enrolment locked first and still open: a save in between makes the write miss, and the
+ * submission starts over on the report as it now is. One read and one autocommitted write keep
+ * the trial's row (bumped by the findings trigger) locked for a single statement, so a due
+ * evening's submissions do not queue behind each other. The answer is the report exactly as stored.
  */
 export async function submitReport(enrollmentId: string, stage: Stage, user: User, input: z.output<typeof reportSubmitSchema> = {}) {
-  const enrollment = await ownEnrollment(enrollmentId, user);
-  const due = await dueAt(enrollment, stage);
-  const choices = await choicesFor(enrollment);
-  const report = await Report.sequelize!.transaction(async (transaction) => {
-    // The enrolment first, then the report: the same order as saves and withdrawals, so no deadlock.
-    const locked = (await Enrollment.findByPk(enrollment.id, { lock: transaction.LOCK.UPDATE, transaction }))!;
-    assertOpen(locked);
+  for (let attempt = 0; ; attempt += 1) {
+    const ctx = await submissionContext(enrollmentId, stage);
+    if (!ctx) throw notFound('enrollment');
+    if (ctx.userId !== user.id) throw notYours('enrolment');
+    if (ctx.status !== 'active' && ctx.status !== 'finished') throw conflict('You have left this trial, so its reports are closed.');
+    const kind = MILESTONE_OF[stage];
+    const due = ctx.dueOverrides?.[kind] ? new Date(ctx.dueOverrides[kind]) : ctx.milestoneDue ? new Date(ctx.milestoneDue) : null;
     assertEditable(due, stage, user);
-    const row = await Report.findOne({ where: { enrollmentId, stage }, lock: transaction.LOCK.UPDATE, transaction });
+    const sizes = ctx.sizes ?? [];
+    const choices = {
+      sizes: sizes.map(([, label]) => label),
+      chosenSize: sizes.find(([id]) => id === ctx.sizeId)?.[1] ?? null,
+      variants: ctx.variants ?? [],
+      drafts: (ctx.drafts ?? []).map(([version, changeNote, at]) => ({ version, changeNote, createdAt: new Date(at) })),
+    };
+    const row: StoredReport | null =
+      ctx.version === null ? null : { content: ctx.content ?? {}, version: ctx.version, submittedAt: ctx.submittedAt ? new Date(ctx.submittedAt) : null, prefilled: ctx.prefilled ?? [] };
     if (input.version !== undefined && (row?.version ?? 0) !== input.version) {
-      throw new StaleReportError(stateOf(stage, row, await prefillFor(enrollmentId, stage, transaction), due, choices));
+      throw new StaleReportError(stateOf(stage, row, row ? { content: {}, parts: [] } : await prefillFor(enrollmentId, stage), due, choices));
     }
     const complete = reportCompleteSchema.safeParse(row?.content ?? {});
     if (!complete.success || !row) {
@@ -170,19 +220,41 @@ export async function submitReport(enrollmentId: string, stage: Stage, user: Use
       for (const issue of complete.error?.issues ?? []) fields[issue.path.join('.') || 'report'] ??= issue.message;
       throw badRequest('The report is not complete yet.', fields);
     }
-    if (!row.submittedAt) await row.update({ submittedAt: new Date() }, { transaction });
-    if (stage === 'final' && locked.status === 'active') await locked.update({ status: 'finished' }, { transaction });
-    return row;
-  });
-  // Stored: from here nothing may turn the tester's answer into an error. Reminders are checked
-  // again before every delivery, so one not cancelled here still never goes out.
-  try {
-    await cancelObsoleteReminders({ enrollmentId: enrollment.id });
-  } catch (error) {
-    console.error('[reports] reminders not cancelled after a submission:', error instanceof Error ? error.message : error);
+    let stored: StoredReport | null = row;
+    if (!row.submittedAt || (stage === 'final' && ctx.status === 'active')) {
+      const now = new Date();
+      // The enrolment is locked first (the InitPlan runs before the report is touched), then the
+      // report of the version checked above: the same order as saves and withdrawals.
+      const [result] = await Report.sequelize!.query<{ submittedAt: Date | null; written: boolean }>(
+        `WITH e AS (SELECT id FROM enrollments WHERE id = $1 AND status IN ('active', 'finished') FOR UPDATE),
+              r AS (UPDATE reports
+                       SET submitted_at = COALESCE(submitted_at, $4),
+                           updated_at = CASE WHEN submitted_at IS NULL THEN $4 ELSE updated_at END
+                     WHERE enrollment_id = (SELECT id FROM e) AND stage = $2 AND version = $3
+                 RETURNING submitted_at),
+              f AS (UPDATE enrollments SET status = 'finished', updated_at = $4
+                     WHERE id = (SELECT id FROM e) AND status = 'active' AND $2 = 'final' AND EXISTS (SELECT 1 FROM r)
+                 RETURNING id)
+         SELECT (SELECT submitted_at FROM r) AS "submittedAt", EXISTS (SELECT 1 FROM r) AS written, (SELECT count(*) FROM f) AS finished`,
+        { bind: [enrollmentId, stage, row.version, now], type: QueryTypes.SELECT },
+      );
+      // Saved in between, or the enrolment closed: start over on the report as it now is.
+      stored = result.written ? { ...row, submittedAt: new Date(result.submittedAt!) } : null;
+      if (!stored) {
+        if (attempt < 5) continue;
+        throw conflict('The report kept changing while it was being submitted; try again.');
+      }
+    }
+    // Stored: from here nothing may turn the tester's answer into an error. Reminders are checked
+    // again before every delivery, so one not cancelled here still never goes out.
+    try {
+      await cancelObsoleteReminders({ enrollmentId });
+    } catch (error) {
+      console.error('[reports] reminders not cancelled after a submission:', error instanceof Error ? error.message : error);
+    }
+    await scheduleFindingsRefresh(ctx.trialId);
+    return stateOf(stage, stored, { content: {}, parts: [] }, due, choices);
   }
-  await scheduleFindingsRefresh(enrollment.trialId);
-  return stateOf(stage, report, { content: {}, parts: [] }, due, choices);
 }
 
 /** The reports of a trial for its staff, filtered by stage, size and draft version. */

@@ -1,3 +1,4 @@
+import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { Enrollment, Milestone, Pattern, PatternSize, Report, Trial, type User } from '../../../db/models';
 import { analysisInputFor } from '../../../server/findings/findings.service';
@@ -153,6 +154,42 @@ describe('saving and submitting a report: versions, one transaction, nothing inv
     }
     const enrolments = await Enrollment.findAll({ where: { id: testers.map((x) => x.enrollment.id) } });
     expect(enrolments.map((e) => e.status)).toEqual(testers.map(() => 'finished'));
+  });
+
+  it('a save that lands after a submission read the report and before it wrote: the submission is judged again on the report as it now is', async () => {
+    const a = await tester('between');
+    await a.save('final', 0, COMPLETE).expect(200);
+    // Hold the enrolment as a withdrawal or a save elsewhere would, so the submission waits at its write.
+    const held = await t.sequelize.transaction();
+    let submitted: Promise<request.Response> | null = null;
+    let blocked = false;
+    try {
+      await t.sequelize.query('SELECT id FROM enrollments WHERE id = $1 FOR UPDATE', { bind: [a.enrollment.id], transaction: held });
+      submitted = a.submit('final').then((r) => r);
+      // Wait until the submission is blocked on the lock (it has read version 1, complete).
+      for (let i = 0; i < 100; i += 1) {
+        const [waiting] = await t.sequelize.query<{ n: string }>(
+          `SELECT count(*) AS n FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock' AND query LIKE '%FOR UPDATE%'`,
+          { type: QueryTypes.SELECT },
+        );
+        blocked = Number(waiting.n) > 0;
+        if (blocked) break;
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      expect(blocked).toBe(true);
+      // Meanwhile the verdict is cleared (version 2): the report is no longer complete.
+      await t.sequelize.query(`UPDATE reports SET content = content - 'verdict', version = version + 1 WHERE enrollment_id = $1 AND stage = 'final'`, { bind: [a.enrollment.id], transaction: held });
+      await held.commit();
+    } catch (error) {
+      await held.rollback();
+      throw error;
+    }
+    const res = await submitted!;
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveProperty('verdict');
+    const row = (await Report.findOne({ where: { enrollmentId: a.enrollment.id, stage: 'final' } }))!;
+    expect(row.submittedAt).toBeNull();
+    expect((await Enrollment.findByPk(a.enrollment.id))!.status).toBe('active');
   });
 
   it('a tester who left the trial cannot submit', async () => {
