@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { MeasurementField } from '@/components/ui/measurement-field';
-import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
-import { colors, space } from '@/constants/theme';
+import { space } from '@/constants/theme';
 import type { ReportDraft } from '@/server/domain/schemas/reports';
 import { formatFabricLength, parseFabricLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 
@@ -72,15 +72,11 @@ export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onCh
         }}
         error={errors['fabric.stretchPct'] ?? (stretchText.trim() && !/^\d+(\.\d+)?\s*%?$/.test(stretchText.trim()) ? 'Write a number, e.g. 20' : undefined)}
       />
-      <View style={styles.switchRow}>
-        <Switch aria-label="Napped or one-way fabric" disabled={readOnly} value={fabric.napped} onValueChange={(napped) => set({ napped })} trackColor={{ true: colors.thread, false: colors.line }} />
-        <AppText>Napped or one-way fabric (every piece cut the same way up)</AppText>
-      </View>
+      <SwitchField label="Napped or one-way fabric" hint="Every piece cut the same way up." disabled={readOnly} value={fabric.napped} onValueChange={(napped) => set({ napped })} />
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   list: { gap: space.sm },
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
 });

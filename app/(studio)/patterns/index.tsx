@@ -28,7 +28,7 @@ export default function PatternsScreen() {
         <View style={styles.list}>
           {data?.map((p) => (
             <Link key={p.id} href={{ pathname: '/patterns/[id]', params: { id: p.id } }} asChild>
-              <Pressable role="link" aria-label={`${p.name}, ${categoryLabel(p.category)}`} style={styles.row}>
+              <Pressable role="link" style={styles.row}>
                 <AppText variant="heading">{p.name}</AppText>
                 <AppText variant="caption">
                   {`${categoryLabel(p.category)} · ${fabricLabel(p.fabricKind)}${p.minStretchPct != null ? ` (${p.minStretchPct} % stretch)` : ''} · ${

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { PhotosSection } from '@/components/photos/photos-section';
 import { AlterationsEditor } from '@/components/reports/alterations-editor';
 import { FabricUsedEditor } from '@/components/reports/fabric-used-editor';
@@ -13,6 +13,7 @@ import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
 import { LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
 import { colors, fonts, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
@@ -176,10 +177,7 @@ export default function ReportScreen() {
         </Card>
         <Card title="Verdict">
           <TextField label="Overall verdict" value={content.verdict ?? ''} editable={!readOnly} multiline onChangeText={(verdict) => update({ verdict })} error={fieldErrors.verdict} />
-          <View style={styles.switchRow}>
-            <Switch aria-label="I would make it again" disabled={readOnly} value={content.wouldMakeAgain ?? false} onValueChange={(wouldMakeAgain) => update({ wouldMakeAgain })} trackColor={{ true: colors.thread, false: colors.line }} />
-            <AppText>I would make it again</AppText>
-          </View>
+          <SwitchField label="I would make it again" disabled={readOnly} value={content.wouldMakeAgain} onValueChange={(wouldMakeAgain) => update({ wouldMakeAgain })} />
         </Card>
         {outcome ? <Notice tone={outcome.tone}>{outcome.text}</Notice> : null}
         {!readOnly ? (
@@ -202,5 +200,4 @@ const styles = StyleSheet.create({
   strong: { fontFamily: fonts.semibold },
   receipt: { gap: space.xs, padding: space.md, borderRadius: 8, backgroundColor: colors.threadSoft },
   step: { gap: space.xs },
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
 });
