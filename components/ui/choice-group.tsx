@@ -1,3 +1,4 @@
+import { useEffect, useRef } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { arrowStep, focusSibling, onKeyDownProps } from './keyboard';
@@ -11,6 +12,8 @@ type Props<T extends string> = {
   error?: string;
   /** Shown, and reachable, but not changeable (e.g. a sent report). */
   disabled?: boolean;
+  /** Takes the focus when it appears (a row just added from the keyboard starts here). */
+  autoFocus?: boolean;
 };
 
 /**
@@ -19,9 +22,15 @@ type Props<T extends string> = {
  * keys move between the options and choose, Space chooses the focused one, as in a native group.
  * Nothing is chosen for the person: focus alone never picks an answer.
  */
-export function ChoiceGroup<T extends string>({ label, options, value, onChange, error, disabled = false }: Props<T>) {
+export function ChoiceGroup<T extends string>({ label, options, value, onChange, error, disabled = false, autoFocus = false }: Props<T>) {
+  const tabStopRef = useRef<View>(null);
   const chosenIndex = options.findIndex((o) => o.value === value);
   const tabStop = chosenIndex >= 0 ? chosenIndex : 0;
+  useEffect(() => {
+    if (autoFocus) (tabStopRef.current as { focus?: () => void } | null)?.focus?.();
+    // Only when it first appears: later renders must not pull the focus back.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
   const choose = (option: { value: T }) => {
     if (!disabled) onChange(option.value);
   };
@@ -47,6 +56,7 @@ export function ChoiceGroup<T extends string>({ label, options, value, onChange,
           return (
             <Pressable
               key={option.value}
+              ref={index === tabStop ? tabStopRef : undefined}
               role="radio"
               aria-checked={selected}
               aria-label={option.label}

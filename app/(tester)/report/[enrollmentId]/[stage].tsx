@@ -35,6 +35,8 @@ export default function ReportScreen() {
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [busy, setBusy] = useState(false);
   const [editing, setEditing] = useState(false);
+  // A step just added from its button: its first field takes the focus.
+  const [addedStep, setAddedStep] = useState<number | null>(null);
   // Typed text that could not be read, by field label: it is not data yet, so submitting waits.
   const [unreadable, setUnreadable] = useState<Record<string, string>>({});
   const mine = trials?.find((t) => t.enrollment?.id === enrollmentId);
@@ -166,11 +168,20 @@ export default function ReportScreen() {
           <AppText variant="caption">Steps that confused you: the step number and what was unclear.</AppText>
           {(content.unclearSteps ?? []).map((s, i) => (
             <View key={i} style={styles.step}>
-              <TextField label={`Unclear step ${i + 1}: number`} value={s.step} editable={!readOnly} onChangeText={(step) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, step } : x)) })} error={fieldErrors[`unclearSteps.${i}.step`]} />
+              <TextField autoFocus={addedStep === i} label={`Unclear step ${i + 1}: number`} value={s.step} editable={!readOnly} onChangeText={(step) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, step } : x)) })} error={fieldErrors[`unclearSteps.${i}.step`]} />
               <TextField label={`Unclear step ${i + 1}: what was unclear`} value={s.problem} editable={!readOnly} multiline onChangeText={(problem) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, problem } : x)) })} error={fieldErrors[`unclearSteps.${i}.problem`]} />
             </View>
           ))}
-          {!readOnly ? <Button label="Add a step" tone="quiet" onPress={() => update({ unclearSteps: [...(content.unclearSteps ?? []), { step: '', problem: '' }] })} /> : null}
+          {!readOnly ? (
+            <Button
+              label="Add a step"
+              tone="quiet"
+              onPress={() => {
+                setAddedStep((content.unclearSteps ?? []).length);
+                update({ unclearSteps: [...(content.unclearSteps ?? []), { step: '', problem: '' }] });
+              }}
+            />
+          ) : null}
         </Card>
         <Card title="Photos">
           <PhotosSection enrollmentId={enrollmentId} stage={stage} readOnly={readOnly} />
