@@ -51,9 +51,9 @@ async function chooseByArrows(page: Page, group: string, option: string | RegExp
   const radios = page.getByRole('radiogroup', { name: group, exact: true }).getByRole('radio');
   const names = await radios.evaluateAll((els) => els.map((e) => e.getAttribute('aria-label') ?? ''));
   const start = await focused(page);
-  if (!(start.role === 'radio' && (await radios.evaluateAll((els) => els.includes(document.activeElement as Element))))) await tabTo(page, 'radio', /.*/, { max: 60 });
+  if (!(start.role === 'radio' && (await radios.evaluateAll((els) => els.some((e) => e === document.activeElement))))) await tabTo(page, 'radio', /.*/, { max: 60 });
   // The next stop must be the group asked for (a radio group is one Tab stop).
-  const inGroup = await radios.evaluateAll((els) => els.includes(document.activeElement as Element));
+  const inGroup = await radios.evaluateAll((els) => els.some((e) => e === document.activeElement));
   if (!inGroup) throw new Error(`Tab reached the radio “${(await focused(page)).name}”, not one of “${group}” (${names.join(', ')})`);
   for (let i = 0; i <= names.length; i += 1) {
     const f = await focused(page);
