@@ -19,6 +19,7 @@ import { space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
 import { saveProfile, useProfile, type Profile } from '@/hooks/use-profile';
 import { useSession } from '@/hooks/use-session';
+import { measurementPlaceholder } from '@/server/domain/category-wording';
 import { MEASUREMENTS } from '@/server/domain/measurements';
 import { STAFF_ROLES } from '@/server/domain/roles';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, profileSchema } from '@/server/domain/schemas/profile';
@@ -149,7 +150,7 @@ function ProfileForm({ profile, runsTrials }: { profile: Profile; runsTrials: bo
                     label={m.label}
                     hint={m.hint}
                     unit={unit}
-                    placeholder={unit === 'in' ? 'e.g. 38 1/2' : 'e.g. 97.8 cm'}
+                    placeholder={measurementPlaceholder(m.key, unit)}
                     valueMm={field.value ?? null}
                     onChangeMm={field.onChange}
                     onBlur={field.onBlur}

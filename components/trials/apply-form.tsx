@@ -15,6 +15,7 @@ import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { useProfile } from '@/hooks/use-profile';
 import { applyToCall, trialKeys, type PublicCall } from '@/hooks/use-trials';
+import { fabricExamples } from '@/server/domain/category-wording';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, type Experience } from '@/server/domain/schemas/profile';
 import type { SizeAdvice } from '@/server/domain/size-advice';
 
@@ -97,7 +98,7 @@ export function ApplyForm({ call, describeDue }: Props) {
       {call.variants.length ? (
         <ChoiceGroup label="Variant" options={[{ value: '', label: 'None' }, ...call.variants.map((v) => ({ value: v.id, label: v.name }))]} value={variantId ?? ''} onChange={(v) => setVariantId(v || null)} error={errors.variantId} />
       ) : null}
-      <TextField label="Fabric you plan to use" hint="Kind, fibre, weight; e.g. mid-weight linen." value={plannedFabric} onChangeText={setPlannedFabric} error={errors.plannedFabric} />
+      <TextField label="Fabric you plan to use" hint={`Kind, fibre, weight; e.g. ${fabricExamples(call.pattern.fabricKind)}.`} value={plannedFabric} onChangeText={setPlannedFabric} error={errors.plannedFabric} />
       <ChoiceGroup label="Sewing experience" options={EXPERIENCE_LEVELS.map((e) => ({ value: e, label: EXPERIENCE_LABELS[e] }))} value={experience} onChange={setExperience} error={errors.experience} />
       <AppText variant="label">Deadlines</AppText>
       {call.milestones.filter((m) => m.kind === 'toile-check-in' || m.kind === 'final-report').map((m) => (

@@ -162,7 +162,7 @@ export default function ReportScreen() {
           <AlterationsEditor category={category} value={content.alterations ?? []} unit={unit} readOnly={readOnly} onChange={(alterations) => update({ alterations })} errors={fieldErrors} onInputError={noteUnreadable} />
         </Card>
         <Card title="Fabric used">
-          <FabricUsedEditor value={content.fabric} lengthUnit={unit} fabricUnit={session.user.fabricUnit} readOnly={readOnly} onChange={(fabric) => update({ fabric })} errors={fieldErrors} onInputError={noteUnreadable} />
+          <FabricUsedEditor fabricKind={mine.trial.fabricKind} value={content.fabric} lengthUnit={unit} fabricUnit={session.user.fabricUnit} readOnly={readOnly} onChange={(fabric) => update({ fabric })} errors={fieldErrors} onInputError={noteUnreadable} />
         </Card>
         <Card title="Instructions">
           <AppText variant="caption">Steps that confused you: the step number and what was unclear.</AppText>
