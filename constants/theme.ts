@@ -13,7 +13,8 @@ export const colors = {
   threadDark: '#21453F',
   threadSoft: '#DCE9E5',
   chalk: '#FFFFFF',
-  warning: '#B54A32',
+  // Dark enough for 13 px text on every background here, warningSoft included (WCAG AA, 4.5:1).
+  warning: '#A3412B',
   warningSoft: '#F6E1DA',
   focus: '#E0A526',
 } as const;

@@ -52,7 +52,7 @@ export type PublicCall = {
 };
 export type MyTrial = {
   applicationId: string;
-  trial: { id: string; slug: string; title: string; state: string; studioName: string; patternId: string; studioId: string; category: string };
+  trial: { id: string; slug: string; title: string; state: string; studioName: string; patternId: string; studioId: string; category: string; fabricKind: string | null };
   status: ApplicationRow['status'];
   size: { id: string; label: string } | null;
   enrollment: { id: string; status: 'active' | 'dropped' | 'finished'; submitted: { checkIn: string | null; final: string | null } } | null;

@@ -1,10 +1,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import type { z } from 'zod';
 import { applyApiError } from '@/components/forms/api-errors';
 import { Button } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button-link';
 import { Card } from '@/components/ui/card';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { MeasurementField } from '@/components/ui/measurement-field';
@@ -12,23 +13,28 @@ import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
 import { LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
-import { colors, space } from '@/constants/theme';
+import { space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
 import { saveProfile, useProfile, type Profile } from '@/hooks/use-profile';
+import { useSession } from '@/hooks/use-session';
+import { measurementPlaceholder } from '@/server/domain/category-wording';
 import { MEASUREMENTS } from '@/server/domain/measurements';
+import { STAFF_ROLES } from '@/server/domain/roles';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, profileSchema } from '@/server/domain/schemas/profile';
 import { deviceTimeZone } from '@/server/domain/time-zones';
 
 type Values = z.input<typeof profileSchema>;
 
 const MAIL_CHOICES = [
-  { key: 'reminders', label: 'Deadline reminders for my trials' },
-  { key: 'trialNews', label: 'Trial news: selection, new drafts' },
-  { key: 'digest', label: 'Daily digest of overdue testers (studio staff)' },
+  { key: 'reminders', label: 'Deadline reminders for my trials', staffOnly: false },
+  { key: 'trialNews', label: 'Trial news: selection, new drafts', staffOnly: false },
+  // Sent only to a studio's owners and coordinators: nobody else is offered it.
+  { key: 'digest', label: 'Daily list of overdue testers in my studios', staffOnly: true },
 ] as const;
 
-function ProfileForm({ profile }: { profile: Profile }) {
+function ProfileForm({ profile, runsTrials }: { profile: Profile; runsTrials: boolean }) {
   const wide = useIsWide();
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
@@ -144,7 +150,7 @@ function ProfileForm({ profile }: { profile: Profile }) {
                     label={m.label}
                     hint={m.hint}
                     unit={unit}
-                    placeholder={unit === 'in' ? 'e.g. 38 1/2' : 'e.g. 97.8 cm'}
+                    placeholder={measurementPlaceholder(m.key, unit)}
                     valueMm={field.value ?? null}
                     onChangeMm={field.onChange}
                     onBlur={field.onBlur}
@@ -177,16 +183,13 @@ function ProfileForm({ profile }: { profile: Profile }) {
 
       <Card title="E-mail">
         <AppText variant="caption">Account and security messages (sign-in, password, invitations) are always sent.</AppText>
-        {MAIL_CHOICES.map((choice) => (
+        {MAIL_CHOICES.filter((choice) => runsTrials || !choice.staffOnly).map((choice) => (
           <Controller
             key={choice.key}
             control={control}
             name={`mail.${choice.key}`}
             render={({ field }) => (
-              <View style={styles.switchRow}>
-                <Switch aria-label={choice.label} value={field.value ?? true} onValueChange={field.onChange} trackColor={{ true: colors.thread, false: colors.line }} />
-                <AppText>{choice.label}</AppText>
-              </View>
+              <SwitchField label={choice.label} value={field.value ?? true} onValueChange={field.onChange} />
             )}
           />
         ))}
@@ -201,11 +204,21 @@ function ProfileForm({ profile }: { profile: Profile }) {
 
 export default function ProfileScreen() {
   const { data, error, mutate } = useProfile();
+  const { session } = useSession();
+  const studios = session?.studios ?? [];
+  const runsTrials = studios.some((s) => s.role === 'owner' || s.role === 'coordinator');
+  const staff = studios.some((s) => STAFF_ROLES.includes(s.role));
   return (
     <Screen title="Profile" intro="Your measurements and preferences. Each application you make keeps a copy as it was then.">
       {error ? <LoadError error={error} onRetry={() => mutate()} /> : null}
       {!data && !error ? <Loading /> : null}
-      {data ? <ProfileForm profile={data} /> : null}
+      {data ? <ProfileForm profile={data} runsTrials={runsTrials} /> : null}
+      {data && session && !staff ? (
+        <Card title="Design patterns?">
+          <AppText variant="caption">Start a studio for your pattern brand to run fit trials of your own.</AppText>
+          <ButtonLink href="/studios" label="Start a studio" tone="quiet" />
+        </Card>
+      ) : null}
     </Screen>
   );
 }
@@ -214,5 +227,4 @@ const styles = StyleSheet.create({
   grid: { gap: space.md },
   gridWide: { flexDirection: 'row', flexWrap: 'wrap' },
   cellWide: { width: '48%' },
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
 });

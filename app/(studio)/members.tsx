@@ -117,7 +117,7 @@ function MemberRow({ member, studioId, canEdit, isSelf }: { member: Member; stud
             />
           ) : null}
           {!isSelf && asking?.kind !== 'remove' ? (
-            <Button label="Remove from studio" accessibleLabel={`Remove ${member.name} from the studio`} tone="danger" onPress={() => setAsking({ kind: 'remove' })} />
+            <Button label="Remove from the studio" accessibleLabel={`Remove from the studio: ${member.name}`} tone="danger" onPress={() => setAsking({ kind: 'remove' })} />
           ) : null}
         </>
       ) : null}

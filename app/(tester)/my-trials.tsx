@@ -138,5 +138,6 @@ const styles = StyleSheet.create({
   link: { color: colors.thread, fontFamily: fonts.semibold, paddingVertical: space.sm },
   drafts: { gap: space.sm },
   reports: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  report: { gap: 2 },
+  // Shrinks with the window: the receipt line wraps on a phone rather than running off the side.
+  report: { gap: 2, flexShrink: 1, maxWidth: '100%' },
 });

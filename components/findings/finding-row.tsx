@@ -25,26 +25,35 @@ export function FindingRow({ studioId, trialId, finding: f, drafts, unit, canTri
   const name = findingName(f);
   const problem = isPatternProblem(f.class);
   const triage = triageOf(f);
+  // The button's name is its visible text in reading order, so speech and sight agree. Each piece
+  // ends in a space: the pieces sit in separate boxes, and their words must not run together.
+  const classText = `${CLASS_LABELS[f.class]}${f.sizes.length ? `: ${f.sizes.join(', ')}` : ''}`;
+  const counts = `${f.count} of ${f.testers} testers`;
+  const rateText = `${percent(f.rate)} (95% ${intervalText(f.wilson)})`;
+  const detailText = `${open ? 'Hide details' : 'Details'} · ${triageText(triage)}`;
   return (
     <View style={[styles.row, problem && styles.problem]} testID={`finding-${f.kind}|${f.direction}`}>
       <Pressable
         role="button"
         aria-expanded={open}
-        aria-label={`${name}: ${CLASS_LABELS[f.class]}${f.sizes.length ? ` (sizes ${f.sizes.join(', ')})` : ''}, ${f.count} of ${f.testers} testers, ${percent(f.rate)}`}
+        aria-label={`${name}: ${classText}, ${counts}, ${rateText}. ${detailText}`}
         onPress={onToggle}
         style={[styles.head, wide && styles.headWide]}
       >
         <View style={[styles.cell, wide && styles.nameCol]}>
-          <AppText style={styles.name}>{name}</AppText>
-          <AppText variant="caption">{`${open ? '▾ Hide details' : '▸ Details'} · ${triageText(triage)}`}</AppText>
+          <AppText style={styles.name}>{`${name} `}</AppText>
         </View>
         <View style={[styles.cell, wide && styles.classCol]}>
-          <AppText style={[styles.badge, problem ? styles.badgeProblem : styles.badgeQuiet]}>{`${problem ? '! ' : ''}${CLASS_LABELS[f.class]}${f.sizes.length ? `: ${f.sizes.join(', ')}` : ''}`}</AppText>
+          <AppText style={[styles.badge, problem ? styles.badgeProblem : styles.badgeQuiet]}>
+            {problem ? <AppText aria-hidden style={styles.mark}>{'! '}</AppText> : null}
+            {`${classText} `}
+          </AppText>
         </View>
         <View style={[styles.cell, wide && styles.numCol]}>
-          <AppText variant="label">{`${f.count} of ${f.testers} testers`}</AppText>
-          <AppText variant="caption">{`${percent(f.rate)} (95% ${intervalText(f.wilson)})`}</AppText>
+          <AppText variant="label">{`${counts} `}</AppText>
+          <AppText variant="caption">{`${rateText} `}</AppText>
         </View>
+        <AppText variant="caption" style={wide ? styles.detailWide : undefined}>{`${open ? '▾' : '▸'} ${detailText}`}</AppText>
       </Pressable>
       {!open && f.reasons[0] ? (
         <AppText variant="caption" style={styles.firstReason}>
@@ -81,12 +90,15 @@ const styles = StyleSheet.create({
   row: { borderWidth: 1, borderColor: colors.line, borderRadius: radius.sm, backgroundColor: colors.surface },
   problem: { borderLeftWidth: 4, borderLeftColor: colors.warning },
   head: { padding: space.md, gap: space.xs, minHeight: 44 },
-  headWide: { flexDirection: 'row', alignItems: 'center', gap: space.md },
+  headWide: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: space.md, rowGap: 2 },
   cell: { gap: 2 },
   nameCol: { flex: 3 },
   classCol: { flex: 2 },
   numCol: { flex: 2, alignItems: 'flex-end' },
   name: { fontFamily: fonts.semibold },
+  mark: { fontFamily: fonts.semibold },
+  // On a wide row the details line runs under the three columns.
+  detailWide: { width: '100%' },
   badge: { alignSelf: 'flex-start', fontFamily: fonts.medium, fontSize: 13, lineHeight: 18, paddingHorizontal: space.sm, paddingVertical: 2, borderRadius: radius.sm },
   badgeProblem: { backgroundColor: colors.warningSoft, color: colors.ink },
   badgeQuiet: { backgroundColor: colors.surfaceSunken, color: colors.inkMuted },

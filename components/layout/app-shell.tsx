@@ -3,6 +3,7 @@ import { Link, usePathname } from 'expo-router';
 import type { ReactNode } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
+import { InsideMain } from '@/components/ui/landmarks';
 import { AppText } from '@/components/ui/text';
 import { colors, fonts, space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
@@ -11,7 +12,7 @@ import { isActive, type NavItem } from './nav-items';
 type Props = {
   area: string;
   items: NavItem[];
-  /** A short word beside the area, e.g. "Read-only" for a grader. */
+  /** A few words beside the area, e.g. what a grader may do. */
   badge?: string;
   /** Shown at the foot of the side navigation, and at the end of the phone header. */
   footer?: ReactNode;
@@ -26,16 +27,26 @@ function Brand({ area, badge, compact = false }: { area: string; badge?: string;
           <AppText style={styles.brandName}>Basted</AppText>
         </Pressable>
       </Link>
+      {/* Wraps rather than clips: the studio's name and the role are read in full at any width. */}
       <View style={styles.areaRow}>
-        <AppText variant="caption" style={styles.brandArea} numberOfLines={1}>
+        <AppText variant="caption" style={styles.brandArea}>
           {area}
         </AppText>
         {badge ? (
-          <AppText variant="caption" style={styles.badge} numberOfLines={1}>
+          <AppText variant="caption" style={styles.badge}>
             {badge}
           </AppText>
         ) : null}
       </View>
+    </View>
+  );
+}
+
+/** The page's one `main` landmark; screens inside it do not draw another. */
+function MainLandmark({ children }: { children: ReactNode }) {
+  return (
+    <View style={styles.main} role="main">
+      <InsideMain.Provider value>{children}</InsideMain.Provider>
     </View>
   );
 }
@@ -72,18 +83,18 @@ export function AppShell({ area, items, badge, footer, children }: Props) {
           })}
           {footer ? <View style={styles.sideFooter}>{footer}</View> : null}
         </View>
-        <View style={styles.main}>{children}</View>
+        <MainLandmark>{children}</MainLandmark>
       </View>
     );
   }
 
   return (
     <View style={[styles.phoneRoot, { paddingTop: insets.top }]}>
-      <View style={styles.header}>
+      <View style={styles.header} role="banner">
         <Brand area={area} badge={badge} compact />
         {footer}
       </View>
-      <View style={styles.main}>{children}</View>
+      <MainLandmark>{children}</MainLandmark>
       <View
         style={[styles.tabs, { paddingBottom: Math.max(insets.bottom, space.xs) }]}
         role="navigation"
@@ -142,7 +153,7 @@ const styles = StyleSheet.create({
   },
   brand: { paddingHorizontal: space.md, paddingVertical: space.sm, marginBottom: space.sm },
   brandCompact: { flex: 1, flexDirection: 'row', alignItems: 'baseline', gap: space.sm, minHeight: 44, paddingTop: space.sm },
-  areaRow: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexShrink: 1 },
+  areaRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', columnGap: space.sm, rowGap: 2, flexShrink: 1 },
   badge: {
     color: colors.thread,
     borderWidth: 1,

@@ -7,23 +7,31 @@ import { colors, fonts, space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
 import { signOut, useSession } from '@/hooks/use-session';
 import { can } from '@/server/domain/policy';
-import { ROLE_LABELS, STAFF_ROLES } from '@/server/domain/roles';
+import { ROLE_LABELS, STAFF_ROLES, type Role } from '@/server/domain/roles';
 import { AppShell } from './app-shell';
 import { ACCOUNT_NAV, STUDIO_NAV, TESTER_NAV } from './nav-items';
 
+/** What a role may do in the studio, in a few words beside its name (only where the name alone misleads). */
+const ROLE_BADGES: Partial<Record<Role, string>> = {
+  // A grader changes no trial or pattern, but triages findings and writes notes on them.
+  grader: 'Triage and notes',
+};
+
 /**
  * The shell for a signed-in person: the studio's sections when they work in the current studio
- * (only those their role may use; graders see a read-only studio), a tester's sections otherwise,
- * and their own pages.
+ * (only those their role may use), a tester's sections otherwise, and their own pages. Someone
+ * who only tests sees no studio switcher: they start a studio from their profile if they wish.
  */
 export function SignedInShell({ children }: { children: ReactNode }) {
-  const { currentStudio } = useSession();
+  const { session, currentStudio } = useSession();
   const router = useRouter();
   const wide = useIsWide();
   const [leaving, setLeaving] = useState(false);
   const role = currentStudio?.role;
   const staff = role != null && STAFF_ROLES.includes(role);
   const primary = staff ? STUDIO_NAV.filter((item) => !item.action || can(role, item.action)) : TESTER_NAV;
+  const worksInAStudio = (session?.studios ?? []).some((s) => STAFF_ROLES.includes(s.role));
+  const account = ACCOUNT_NAV.filter((item) => item.href !== '/studios' || worksInAStudio);
   const area = currentStudio ? `${currentStudio.name} · ${ROLE_LABELS[currentStudio.role]}` : 'Your account';
 
   const footer = (
@@ -49,7 +57,7 @@ export function SignedInShell({ children }: { children: ReactNode }) {
   );
 
   return (
-    <AppShell area={area} items={[...primary, ...ACCOUNT_NAV]} badge={role === 'grader' ? 'Read-only' : undefined} footer={footer}>
+    <AppShell area={area} items={[...primary, ...account]} badge={role ? ROLE_BADGES[role] : undefined} footer={footer}>
       {children}
     </AppShell>
   );

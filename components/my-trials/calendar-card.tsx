@@ -33,7 +33,7 @@ export function CalendarCard() {
         <View style={styles.feed}>
           <TextField label="Private calendar address" value={data.feedUrl} editable={false} selectTextOnFocus hint="Add it in your calendar app as a subscription (by URL). Anyone with it can see your dates: keep it to yourself." />
           <View style={styles.actions}>
-            <Button label="Make a new address" tone="quiet" busy={busy} onPress={() => act(renewCalendarFeed)} accessibleLabel="Make a new calendar address (the old one stops working)" />
+            <Button label="Make a new address" tone="quiet" busy={busy} onPress={() => act(renewCalendarFeed)} accessibleLabel="Make a new address for the calendar (the old one stops working)" />
             <Button label="Stop the address" tone="danger" busy={busy} onPress={() => act(stopCalendarFeed)} />
           </View>
         </View>

@@ -11,6 +11,7 @@ import { ToggleChips } from '@/components/ui/toggle-chips';
 import { colors, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
 import { saveChart, type PatternDetail } from '@/hooks/use-patterns';
+import { bodyMeasurementsFor, finishedMeasurementsFor, heightPlaceholder, newVariantFor, VARIANT_KIND_LABELS, variantExplanation, variantKindsFor } from '@/server/domain/category-wording';
 import { FINISHED_MEASUREMENTS, type FabricKind, type GarmentCategory } from '@/server/domain/garments';
 import { MEASUREMENTS } from '@/server/domain/measurements';
 import type { LengthUnit } from '@/server/domain/units';
@@ -23,10 +24,19 @@ type Props = { studioId: string; pattern: PatternDetail; unit: LengthUnit; canEd
 const BODY_OPTIONS = MEASUREMENTS.map((m) => ({ value: m.key, label: m.label }));
 const FINISHED_OPTIONS = FINISHED_MEASUREMENTS.map((m) => ({ value: m.key, label: m.label }));
 const labelOf = (options: { value: string; label: string }[], key: string) => options.find((o) => o.value === key)?.label ?? key;
+/** The garment's usual measurements first (and any already in the chart); the rest on request. */
+const offered = (options: { value: string; label: string }[], usual: readonly string[], chosen: readonly string[], all: boolean) =>
+  all ? options : options.filter((o) => usual.includes(o.value) || chosen.includes(o.value));
 
 /** The size chart of a pattern: sizes in order, measurement columns, values, variants; saved as a whole. */
 export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
   const [draft, setDraft] = useState<ChartDraft>(() => draftFromChart(pattern.chart));
+  const category = pattern.category as GarmentCategory;
+  const [allBody, setAllBody] = useState(false);
+  const [allFinished, setAllFinished] = useState(false);
+  const bodyOptions = offered(BODY_OPTIONS, bodyMeasurementsFor(category), draft.bodyColumns, allBody);
+  const finishedOptions = offered(FINISHED_OPTIONS, finishedMeasurementsFor(category), draft.finishedColumns, allFinished);
+  const variantKinds = variantKindsFor(category);
   const [busy, setBusy] = useState(false);
   const [result, setResult] = useState<{ tone: 'error' | 'success'; message: string; problems: string[] } | null>(null);
   // Cells whose typed text could not be read, by the cell's label: while any is left, the chart
@@ -87,13 +97,16 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
           label="Drafted for a height of"
           hint="The height the sample size is drafted for; leg advice compares testers with it."
           unit={unit}
-          placeholder={unit === 'in' ? 'e.g. 66' : 'e.g. 168 cm'}
+          placeholder={heightPlaceholder(unit)}
           valueMm={draft.draftedHeightMm}
           readOnly={!canEdit}
           onChangeMm={(mm) => update((d) => ({ ...d, draftedHeightMm: mm }))}
           onInputError={(message) => noteUnreadable('Drafted for a height of', message)}
         />
-        <ToggleChips label="Body measurements in the chart" options={BODY_OPTIONS} selected={draft.bodyColumns} disabled={!canEdit} onChange={(bodyColumns) => update((d) => ({ ...d, bodyColumns }))} />
+        <ToggleChips label="Body measurements in the chart" options={bodyOptions} selected={draft.bodyColumns} disabled={!canEdit} onChange={(bodyColumns) => update((d) => ({ ...d, bodyColumns }))} />
+        {canEdit && bodyOptions.length < BODY_OPTIONS.length ? (
+          <Button label={`More body measurements (${BODY_OPTIONS.length - bodyOptions.length})`} tone="quiet" onPress={() => setAllBody(true)} />
+        ) : null}
 
         <AppText variant="label">Sizes, smallest first</AppText>
         {draft.sizes.map((size, i) => (
@@ -136,7 +149,10 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
           onInputError={noteUnreadable}
         />
 
-        <ToggleChips label="Finished garment measurements" options={FINISHED_OPTIONS} selected={draft.finishedColumns} disabled={!canEdit} onChange={(finishedColumns) => update((d) => ({ ...d, finishedColumns }))} />
+        <ToggleChips label="Finished garment measurements" options={finishedOptions} selected={draft.finishedColumns} disabled={!canEdit} onChange={(finishedColumns) => update((d) => ({ ...d, finishedColumns }))} />
+        {canEdit && finishedOptions.length < FINISHED_OPTIONS.length ? (
+          <Button label={`More finished measurements (${FINISHED_OPTIONS.length - finishedOptions.length})`} tone="quiet" onPress={() => setAllFinished(true)} />
+        ) : null}
         {finishedColumns.length ? (
           <ChartValuesEditor
             title="Finished"
@@ -150,7 +166,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
         ) : null}
 
         <AppText variant="label">Variants</AppText>
-        <AppText variant="caption">A variant (a fuller-belly front, a cup size) replaces some body measurements in the sizes it is drafted for.</AppText>
+        <AppText variant="caption">{variantExplanation(category)}</AppText>
         {draft.variants.map((variant) => (
           <View key={variant.key} style={styles.variant}>
             <TextField
@@ -161,11 +177,8 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
             />
             <ChoiceGroup
               label={`Kind of ${variant.name || 'variant'}`}
-              options={[
-                { value: 'fuller-belly', label: 'Fuller belly' },
-                { value: 'cup', label: 'Cup size' },
-                { value: 'other', label: 'Other' },
-              ]}
+              // The garment's kinds, and the variant's own kind if it was saved as another.
+              options={[...new Set([...variantKinds, variant.kind])].map((k) => ({ value: k, label: VARIANT_KIND_LABELS[k] }))}
               value={variant.kind}
               onChange={(kind) => canEdit && update((d) => ({ ...d, variants: d.variants.map((v) => (v.key === variant.key ? { ...v, kind } : v)) }))}
             />
@@ -197,7 +210,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
           <Button
             label="Add a variant"
             tone="quiet"
-            onPress={() => update((d) => ({ ...d, variants: [...d.variants, { key: newKey(), name: 'Fuller belly front', kind: 'fuller-belly', columns: d.bodyColumns.includes('waist') ? ['waist'] : [], values: {} }] }))}
+            onPress={() => update((d) => ({ ...d, variants: [...d.variants, { key: newKey(), ...newVariantFor(category, d.bodyColumns), values: {} }] }))}
           />
         ) : null}
 
@@ -213,7 +226,7 @@ export function ChartEditor({ studioId, pattern, unit, canEdit }: Props) {
         ) : null}
         {canEdit ? <Button label="Save size chart" busyLabel="Saving…" busy={busy} onPress={save} /> : null}
       </Card>
-      <ChartChecksPanel draft={draft} category={pattern.category as GarmentCategory} fabricKind={pattern.fabricKind as FabricKind} unit={unit} />
+      <ChartChecksPanel draft={draft} category={category} fabricKind={pattern.fabricKind as FabricKind} unit={unit} />
     </>
   );
 }

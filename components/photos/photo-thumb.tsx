@@ -27,7 +27,7 @@ export function OwnPhotoThumb({ photoId, label }: { photoId: string; label: stri
   if (!data) {
     return (
       <View style={[styles.image, styles.placeholder]} role="progressbar" aria-label={`Loading ${label.toLowerCase()}`}>
-        <ActivityIndicator color={colors.thread} />
+        <ActivityIndicator color={colors.thread} aria-hidden />
       </View>
     );
   }

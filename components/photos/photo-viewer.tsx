@@ -14,9 +14,11 @@ export function PhotoViewer({ photo, onClose }: { photo: WallPhoto; onClose: () 
   const [failures, setFailures] = useState(0);
   const title = `${VIEW_LABELS[photo.view]} · ${photo.tester.name} · size ${photo.size.label}${photo.variant ? ` (${photo.variant})` : ''}`;
   return (
-    <Modal visible transparent animationType="fade" onRequestClose={onClose}>
+    // On the web the modal is the dialog (named here): it keeps the focus inside while open, closes on
+    // Escape, and hands the focus back to the photo that opened it.
+    <Modal visible transparent animationType="fade" onRequestClose={onClose} aria-label={title}>
       <View style={styles.backdrop}>
-        <View style={styles.sheet} role="dialog" aria-label={title}>
+        <View style={styles.sheet}>
           <ScrollView contentContainerStyle={styles.content}>
             <AppText variant="heading">{title}</AppText>
             <AppText variant="caption">
@@ -26,7 +28,7 @@ export function PhotoViewer({ photo, onClose }: { photo: WallPhoto; onClose: () 
             {error ? <Notice tone="error">{`The photo cannot be shown: ${error.message}`}</Notice> : null}
             {!data && !error ? (
               <View style={styles.loading} role="progressbar" aria-label="Loading the photo">
-                <ActivityIndicator color={colors.thread} />
+                <ActivityIndicator color={colors.thread} aria-hidden />
               </View>
             ) : null}
             {data && failures < 2 ? (

@@ -26,14 +26,18 @@ function bySize(photos: WallPhoto[]): SizeRow[] {
 
 function WallThumb({ photo, onOpen, onBroken, showView }: { photo: WallPhoto; onOpen: () => void; onBroken: () => void; showView: boolean }) {
   const label = `${photo.view === 'detail' ? 'Detail' : VIEW_LABELS[photo.view]} photo of ${photo.tester.name}, size ${photo.size.label}`;
+  const who = showView ? `${VIEW_LABELS[photo.view]} · ${photo.tester.name}` : photo.tester.name;
+  const which = `${photo.stage === 'check-in' ? 'toile' : 'final'} · ${CONSENT_SHORT[photo.consent]}`;
+  // The name ends with the captions as shown, so what is heard matches what is seen. The captions
+  // wrap under the thumbnail rather than being cut short.
   return (
-    <Pressable role="button" aria-label={`Open the ${label[0].toLowerCase()}${label.slice(1)}`} onPress={onOpen} style={styles.thumb}>
+    <Pressable role="button" aria-label={`Open the ${label[0].toLowerCase()}${label.slice(1)}. ${who} ${which}`} onPress={onOpen} style={styles.thumb}>
       <Thumbnail uri={photo.thumbUrl} label={label} onError={onBroken} />
-      <AppText variant="caption" numberOfLines={1} style={styles.caption}>
-        {showView ? `${VIEW_LABELS[photo.view]} · ${photo.tester.name}` : photo.tester.name}
+      <AppText variant="caption" style={styles.caption}>
+        {`${who} `}
       </AppText>
-      <AppText variant="caption" numberOfLines={1} style={styles.caption}>
-        {`${photo.stage === 'check-in' ? 'toile' : 'final'} · ${CONSENT_SHORT[photo.consent]}`}
+      <AppText variant="caption" style={styles.caption}>
+        {which}
       </AppText>
     </Pressable>
   );

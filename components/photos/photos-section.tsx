@@ -165,7 +165,7 @@ export function PhotosSection({ enrollmentId, stage, readOnly }: Props) {
                 <Notice tone="error">{`The ${noun} photo was not uploaded. ${upload.failed}`}</Notice>
                 <View style={styles.row}>
                   {upload.file.size <= PHOTO_MAX_BYTES ? (
-                    <Button label="Try again" accessibleLabel={`Try the ${noun} photo again`} onPress={() => void send(view, upload.file, upload.consent)} />
+                    <Button label="Try again" accessibleLabel={`Try again: the ${noun} photo`} onPress={() => void send(view, upload.file, upload.consent)} />
                   ) : null}
                   <Button label="Dismiss" tone="quiet" onPress={() => setPending((p) => ({ ...p, [view]: undefined }))} />
                 </View>

@@ -9,6 +9,7 @@ import { Screen } from '@/components/ui/screen';
 import { Empty, LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
 import { TextField } from '@/components/ui/text-field';
+import { spacePresses } from '@/components/ui/keyboard';
 import { ToggleChips } from '@/components/ui/toggle-chips';
 import { colors, fonts, radius, space } from '@/constants/theme';
 import { useIsWide } from '@/hooks/use-is-wide';
@@ -21,8 +22,8 @@ function PersonRow({ p, chosen, onToggle, wide }: { p: PoolPerson; chosen: boole
     <Pressable
       role="checkbox"
       aria-checked={chosen}
-      aria-label={`Choose ${p.name}`}
       onPress={onToggle}
+      {...spacePresses(onToggle)}
       style={[styles.person, chosen ? styles.chosen : null, wide ? styles.personWide : null]}
     >
       <View style={styles.personHead}>

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { ChoiceGroup } from '@/components/ui/choice-group';
@@ -36,6 +37,9 @@ export const NEW_ALTERATION: AlterationEntry = { area: null, kind: null, amountM
 export function AlterationsEditor({ category, value, unit, readOnly, onChange, errors = {}, onInputError }: Props) {
   const kinds = alterationKindsFor(category);
   const areas = [...new Set(kinds.filter((k) => k.key !== 'other').map((k) => k.area))];
+  // The row just added with the button: its first question takes the focus, so a keyboard user
+  // goes on from there rather than from the button below it.
+  const [added, setAdded] = useState<number | null>(null);
   const set = (i: number, patch: Partial<AlterationEntry>) => onChange(value.map((a, j) => (j === i ? { ...a, ...patch } : a)));
   return (
     <View style={styles.list}>
@@ -46,6 +50,7 @@ export function AlterationsEditor({ category, value, unit, readOnly, onChange, e
         return (
           <View key={i} style={styles.item}>
             <ChoiceGroup
+              autoFocus={added === i}
               label={`Alteration ${i + 1}: area`}
               options={areas.map((x) => ({ value: x, label: AREA_LABELS[x] }))}
               value={a.area}
@@ -94,11 +99,20 @@ export function AlterationsEditor({ category, value, unit, readOnly, onChange, e
                 {`Not counted yet: ${Object.values(missing).join('; ').toLowerCase()}.`}
               </AppText>
             ) : null}
-            {!readOnly ? <Button label="Remove this alteration" accessibleLabel={`Remove alteration ${i + 1}`} tone="danger" onPress={() => onChange(value.filter((_, j) => j !== i))} /> : null}
+            {!readOnly ? <Button label={`Remove alteration ${i + 1}`} tone="danger" onPress={() => onChange(value.filter((_, j) => j !== i))} /> : null}
           </View>
         );
       })}
-      {!readOnly ? <Button label="Add an alteration" tone="quiet" onPress={() => onChange([...value, { ...NEW_ALTERATION }])} /> : null}
+      {!readOnly ? (
+        <Button
+          label="Add an alteration"
+          tone="quiet"
+          onPress={() => {
+            setAdded(value.length);
+            onChange([...value, { ...NEW_ALTERATION }]);
+          }}
+        />
+      ) : null}
     </View>
   );
 }

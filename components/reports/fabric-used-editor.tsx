@@ -1,9 +1,10 @@
 import { useState } from 'react';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { MeasurementField } from '@/components/ui/measurement-field';
-import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
-import { colors, space } from '@/constants/theme';
+import { space } from '@/constants/theme';
+import { fabricExamples } from '@/server/domain/category-wording';
 import type { ReportDraft } from '@/server/domain/schemas/reports';
 import { formatFabricLength, parseFabricLength, type FabricUnit, type LengthUnit } from '@/server/domain/units';
 
@@ -14,6 +15,8 @@ type Props = {
   fabricUnit: FabricUnit;
   readOnly: boolean;
   onChange: (next: Fabric) => void;
+  /** The pattern's fabric kind: the examples shown are of that kind. */
+  fabricKind?: string | null;
   errors?: Record<string, string>;
   /** Told when a typed length cannot be read (the field's label and the message) or can again (null). */
   onInputError?: (label: string, message: string | null) => void;
@@ -25,13 +28,13 @@ export const EMPTY_FABRIC: Fabric = { kind: '', fibre: '', widthMm: null, usedMm
  * The fabric the tester sewed with: what it was, how wide, how much of it the garment took and
  * whether it had to be cut one way. The studio compares the length used with the stated needs.
  */
-export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onChange, errors = {}, onInputError }: Props) {
+export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onChange, fabricKind, errors = {}, onInputError }: Props) {
   const fabric = { ...EMPTY_FABRIC, ...(value ?? {}) };
   const set = (patch: Partial<Fabric>) => onChange({ ...fabric, ...patch });
   const [stretchText, setStretchText] = useState(fabric.stretchPct == null ? '' : String(fabric.stretchPct));
   return (
     <View style={styles.list}>
-      <TextField label="Fabric" hint="e.g. cotton twill, linen, viscose crepe" value={fabric.kind} editable={!readOnly} onChangeText={(kind) => set({ kind })} error={errors['fabric.kind']} />
+      <TextField label="Fabric" hint={`e.g. ${fabricExamples(fabricKind)}`} value={fabric.kind} editable={!readOnly} onChangeText={(kind) => set({ kind })} error={errors['fabric.kind']} />
       <TextField label="Fibre content" hint="e.g. 98% cotton, 2% elastane" value={fabric.fibre} editable={!readOnly} onChangeText={(fibre) => set({ fibre })} error={errors['fabric.fibre']} />
       <MeasurementField
         label="Fabric width"
@@ -72,15 +75,11 @@ export function FabricUsedEditor({ value, lengthUnit, fabricUnit, readOnly, onCh
         }}
         error={errors['fabric.stretchPct'] ?? (stretchText.trim() && !/^\d+(\.\d+)?\s*%?$/.test(stretchText.trim()) ? 'Write a number, e.g. 20' : undefined)}
       />
-      <View style={styles.switchRow}>
-        <Switch aria-label="Napped or one-way fabric" disabled={readOnly} value={fabric.napped} onValueChange={(napped) => set({ napped })} trackColor={{ true: colors.thread, false: colors.line }} />
-        <AppText>Napped or one-way fabric (every piece cut the same way up)</AppText>
-      </View>
+      <SwitchField label="Napped or one-way fabric" hint="Every piece cut the same way up." disabled={readOnly} value={fabric.napped} onValueChange={(napped) => set({ napped })} />
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   list: { gap: space.sm },
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
 });

@@ -4,6 +4,7 @@ import { Pressable, StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
+import { spacePresses } from '@/components/ui/keyboard';
 import { Empty, LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
 import { ToggleChips } from '@/components/ui/toggle-chips';
@@ -102,14 +103,15 @@ export function ApplicantsPanel({ studioId, trialId, unit }: Props) {
         {shown.map((a) => {
           const on = chosen.includes(a.id);
           const height = a.measurementsMm.height;
+          const toggle = () => setChosen((c) => (on ? c.filter((x) => x !== a.id) : [...c, a.id]));
           return (
             <Pressable
               key={a.id}
               role="checkbox"
               aria-checked={on}
-              aria-label={`${a.applicant.name}, size ${a.size?.label ?? 'none'}, ${a.status}`}
               disabled={a.status === 'withdrawn'}
-              onPress={() => setChosen((c) => (on ? c.filter((x) => x !== a.id) : [...c, a.id]))}
+              onPress={toggle}
+              {...(a.status === 'withdrawn' ? {} : spacePresses(toggle))}
               style={[styles.app, on && styles.appOn]}
             >
               <AppText style={styles.strong}>{`${a.applicant.name} · size ${a.size?.label ?? '—'} · ${a.status}`}</AppText>

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet } from 'react-native';
 import useSWR from 'swr';
 import { AdviceView } from '@/components/patterns/advice-view';
 import { Button } from '@/components/ui/button';
@@ -8,12 +8,14 @@ import { Card } from '@/components/ui/card';
 import { ChoiceGroup } from '@/components/ui/choice-group';
 import { Notice } from '@/components/ui/notice';
 import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
-import { colors, space } from '@/constants/theme';
+import { colors } from '@/constants/theme';
 import { describeApiError } from '@/components/forms/api-errors';
 import { ApiError } from '@/hooks/api';
 import { useProfile } from '@/hooks/use-profile';
 import { applyToCall, trialKeys, type PublicCall } from '@/hooks/use-trials';
+import { fabricExamples } from '@/server/domain/category-wording';
 import { EXPERIENCE_LABELS, EXPERIENCE_LEVELS, type Experience } from '@/server/domain/schemas/profile';
 import type { SizeAdvice } from '@/server/domain/size-advice';
 
@@ -96,16 +98,13 @@ export function ApplyForm({ call, describeDue }: Props) {
       {call.variants.length ? (
         <ChoiceGroup label="Variant" options={[{ value: '', label: 'None' }, ...call.variants.map((v) => ({ value: v.id, label: v.name }))]} value={variantId ?? ''} onChange={(v) => setVariantId(v || null)} error={errors.variantId} />
       ) : null}
-      <TextField label="Fabric you plan to use" hint="Kind, fibre, weight; e.g. mid-weight linen." value={plannedFabric} onChangeText={setPlannedFabric} error={errors.plannedFabric} />
+      <TextField label="Fabric you plan to use" hint={`Kind, fibre, weight; e.g. ${fabricExamples(call.pattern.fabricKind)}.`} value={plannedFabric} onChangeText={setPlannedFabric} error={errors.plannedFabric} />
       <ChoiceGroup label="Sewing experience" options={EXPERIENCE_LEVELS.map((e) => ({ value: e, label: EXPERIENCE_LABELS[e] }))} value={experience} onChange={setExperience} error={errors.experience} />
       <AppText variant="label">Deadlines</AppText>
       {call.milestones.filter((m) => m.kind === 'toile-check-in' || m.kind === 'final-report').map((m) => (
         <AppText key={m.kind} variant="caption">{`${m.label}: ${describeDue(m.dueAt)}`}</AppText>
       ))}
-      <View style={styles.switchRow}>
-        <Switch aria-label="I can meet these deadlines" value={confirmed} onValueChange={setConfirmed} trackColor={{ true: colors.thread, false: colors.line }} />
-        <AppText>I can meet these deadlines</AppText>
-      </View>
+      <SwitchField label="I can meet these deadlines" value={confirmed} onValueChange={setConfirmed} />
       {errors.deadlinesConfirmed ? <AppText variant="caption" style={styles.warn}>{`Deadlines: ${errors.deadlinesConfirmed}`}</AppText> : null}
       <ChoiceGroup
         label="Who may see your photos"
@@ -125,6 +124,5 @@ export function ApplyForm({ call, describeDue }: Props) {
 }
 
 const styles = StyleSheet.create({
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
   warn: { color: colors.warning },
 });

@@ -56,7 +56,7 @@ export function TestersPanel({ studioId, trialId, timeZone }: { studioId: string
                   <Button label="Save the new date" onPress={save} />
                 </>
               ) : (
-                <Button label="Give more time" accessibleLabel={`Give ${e.tester.name} more time: ${d.label}`} tone="quiet" onPress={() => setEditing({ id: e.id, kind: d.kind, text: toLocalText(d.dueAt, timeZone) })} />
+                <Button label="Give more time" accessibleLabel={`Give more time: ${e.tester.name}, ${d.label}`} tone="quiet" onPress={() => setEditing({ id: e.id, kind: d.kind, text: toLocalText(d.dueAt, timeZone) })} />
               )}
             </View>
           ))}

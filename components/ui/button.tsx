@@ -27,7 +27,7 @@ export function Button({ label, onPress, busy = false, busyLabel, disabled = fal
       style={({ pressed }) => [styles.base, styles[tone], pressed && styles.pressed, inactive && styles.inactive]}
     >
       <View style={styles.row}>
-        {busy ? <ActivityIndicator size="small" color={tone === 'primary' ? colors.chalk : colors.thread} /> : null}
+        {busy ? <ActivityIndicator aria-hidden size="small" color={tone === 'primary' ? colors.chalk : colors.thread} /> : null}
         <AppText style={[styles.label, tone === 'primary' ? styles.onPrimary : tone === 'danger' ? styles.onDanger : styles.onQuiet]}>
           {busy && busyLabel ? busyLabel : label}
         </AppText>

@@ -1,14 +1,17 @@
 import type { ReactNode } from 'react';
 import { ScrollView, StyleSheet, View } from 'react-native';
 import { CONTENT_MAX_WIDTH, colors, space } from '@/constants/theme';
+import { useInsideMain } from './landmarks';
 import { AppText } from './text';
 
 type Props = { title: string; intro?: string; children?: ReactNode };
 
 /** Every screen's wrapper: a title and a readable column, centred on a wide window. */
 export function Screen({ title, intro, children }: Props) {
+  // Inside the shell, the shell's own `main` holds the screen; on its own, the screen is the main landmark.
+  const insideMain = useInsideMain();
   return (
-    <ScrollView style={styles.scroll} contentContainerStyle={styles.content}>
+    <ScrollView style={styles.scroll} contentContainerStyle={styles.content} role={insideMain ? undefined : 'main'} aria-label={insideMain ? undefined : title}>
       <View style={styles.column}>
         <AppText variant="title">{title}</AppText>
         {intro ? <AppText style={styles.intro}>{intro}</AppText> : null}

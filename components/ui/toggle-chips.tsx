@@ -1,5 +1,6 @@
 import { Pressable, StyleSheet, View } from 'react-native';
 import { colors, fonts, radius, space } from '@/constants/theme';
+import { spacePresses } from './keyboard';
 import { AppText } from './text';
 
 type Props = {
@@ -18,6 +19,8 @@ export function ToggleChips({ label, options, selected, onChange, disabled = fal
       <View style={styles.row}>
         {options.map((o) => {
           const on = selected.includes(o.value);
+          const toggle = () =>
+            onChange(on ? selected.filter((v) => v !== o.value) : options.map((x) => x.value).filter((v) => v === o.value || selected.includes(v)));
           return (
             <Pressable
               key={o.value}
@@ -25,9 +28,8 @@ export function ToggleChips({ label, options, selected, onChange, disabled = fal
               aria-checked={on}
               aria-label={o.label}
               disabled={disabled}
-              onPress={() =>
-                onChange(on ? selected.filter((v) => v !== o.value) : options.map((x) => x.value).filter((v) => v === o.value || selected.includes(v)))
-              }
+              onPress={toggle}
+              {...(disabled ? {} : spacePresses(toggle))}
               style={[styles.chip, on && styles.on]}
             >
               <AppText style={[styles.text, on && styles.onText]}>{o.label}</AppText>

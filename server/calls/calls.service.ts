@@ -162,7 +162,7 @@ export async function myTrials(user: User) {
       const next = enrollment?.status === 'active' ? (dues.find((d) => d.dueAt > now) ?? null) : null;
       return {
         applicationId: app.id,
-        trial: { id: trial.id, slug: trial.slug, title: trial.title, state: trial.state, studioName: studio?.name ?? '', patternId: trial.patternId, studioId: trial.studioId, category: trial.pattern?.category ?? 'other' },
+        trial: { id: trial.id, slug: trial.slug, title: trial.title, state: trial.state, studioName: studio?.name ?? '', patternId: trial.patternId, studioId: trial.studioId, category: trial.pattern?.category ?? 'other', fabricKind: trial.pattern?.fabricKind ?? null },
         status: app.status,
         size: size ? { id: size.id, label: size.label } : null,
         enrollment: enrollment ? { id: enrollment.id, status: enrollment.status, submitted: receiptsOf(enrollment) } : null,

@@ -65,6 +65,11 @@ const FAMILY: Record<GarmentCategory, Family[]> = {
   other: ['tops', 'bottoms'],
 };
 
+/** The garment families (tops, bottoms) a category belongs to. */
+export function garmentFamilies(category: GarmentCategory): readonly Family[] {
+  return FAMILY[category] ?? ['tops', 'bottoms'];
+}
+
 /** The kinds a tester may choose for a garment; skirts drop the kinds that need a crotch seam. */
 export function alterationKindsFor(category: GarmentCategory): AlterationKind[] {
   const families = FAMILY[category];

@@ -71,12 +71,12 @@ describe('the studio shell', () => {
     expect(router.getPathname()).toBe('/patterns');
   });
 
-  it('gives a grader a read-only studio: no member management, and says so', async () => {
+  it('gives a grader no member management, and says what a grader does: triage and notes', async () => {
     mockedUseIsWide.mockReturnValue(true);
     serveSessionAs('grader');
     renderRouter(studioRoutes, { initialUrl: '/findings' });
     await screen.findByRole('heading', { name: 'Findings' });
-    expect(screen.getByText('Read-only')).toBeTruthy();
+    expect(screen.getByText('Triage and notes')).toBeTruthy();
     expect(screen.queryByRole('link', { name: /Members/ })).toBeNull();
     expect(screen.getByRole('link', { name: /Findings/ }).props['aria-current']).toBe('page');
     expect(screen.getByRole('link', { name: /Trials/ }).props['aria-current']).toBeUndefined();

@@ -57,10 +57,11 @@ describe('FabricUsedEditor', () => {
     expect(onChange.mock.lastCall[0].stretchPct).toBeNull();
   });
 
-  it('marks napped or one-way fabric', () => {
+  it('marks napped or one-way fabric with a tap anywhere on the switch’s row, words included', () => {
     const onChange = jest.fn();
     render(<Harness onChange={onChange} />);
-    fireEvent(screen.getByLabelText('Napped or one-way fabric'), 'valueChange', true);
+    expect(screen.getByRole('switch', { name: /^Napped or one-way fabric/, checked: false })).toBeTruthy();
+    fireEvent.press(screen.getByText('Napped or one-way fabric'));
     expect(onChange.mock.lastCall[0].napped).toBe(true);
   });
 });

@@ -198,7 +198,7 @@ describe('the findings screen of a trial', () => {
   it('opens a finding onto its reasons and both charts', async () => {
     serve();
     renderRouter(routes, { initialUrl: '/findings/t1' });
-    fireEvent.press(await screen.findByRole('button', { name: /^Leg length, added: Whole draft, 6 of 10 testers, 60%$/ }));
+    fireEvent.press(await screen.findByRole('button', { name: /^Leg length, added: Whole draft, 6 of 10 testers, 60%/ }));
     expect(await screen.findByText('• Reason for leg-length.')).toBeTruthy();
     expect(screen.getByTestId('rate-chart')).toBeTruthy();
     expect(screen.getByTestId('amount-chart')).toBeTruthy();
@@ -241,7 +241,7 @@ describe('the findings screen of a trial', () => {
   it('sends the triage change with the finding’s kind and direction, and shows the saved state', async () => {
     const calls = serve({ role: 'grader' });
     renderRouter(routes, { initialUrl: '/findings/t1' });
-    fireEvent.press(await screen.findByRole('button', { name: /^Leg length, added: Whole draft, 6 of 10 testers, 60%$/ }));
+    fireEvent.press(await screen.findByRole('button', { name: /^Leg length, added: Whole draft, 6 of 10 testers, 60%/ }));
     const triage = await screen.findByLabelText('Triage of Leg length, added');
     fireEvent.press(within(triage).getByRole('radio', { name: 'Will fix' }));
     fireEvent.press(screen.getByRole('button', { name: 'Save the triage' }));
@@ -344,7 +344,7 @@ describe('the findings section', () => {
   it('lists the studio’s trials, each linking to its findings', async () => {
     serve();
     const router = renderRouter(routes, { initialUrl: '/findings' });
-    fireEvent.press(await screen.findByRole('link', { name: 'Findings of Wide-leg trousers' }));
+    fireEvent.press(await screen.findByRole('link', { name: /Wide-leg trousers/ }));
     await waitFor(() => expect(router.getPathname()).toBe('/findings/t1'));
     expect(await screen.findByRole('heading', { name: 'Findings: Wide-leg trousers' })).toBeTruthy();
   });

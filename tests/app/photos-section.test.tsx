@@ -169,7 +169,7 @@ describe('the photos of a report', () => {
     await act(async () => ScriptedXhr.sent[0].answer(503, { error: { code: 'unavailable', message } }));
     expect(await screen.findByText(`The back photo was not uploaded. ${message}`, undefined, LOAD)).toBeTruthy();
 
-    fireEvent.press(screen.getByRole('button', { name: 'Try the back photo again' }));
+    fireEvent.press(screen.getByRole('button', { name: 'Try again: the back photo' }));
     await waitFor(() => expect(ScriptedXhr.sent).toHaveLength(2));
     const again = ScriptedXhr.sent[1].body!.get('photo') as File;
     expect(again.name).toBe('back.jpg');
@@ -205,7 +205,7 @@ describe('the photos of a report', () => {
     fireEvent.press(await screen.findByRole('button', { name: 'Add a side photo' }, LOAD));
     expect(await screen.findByText('The side photo was not uploaded. raw.jpg is too large: photos can be up to 15 MB. Choose a smaller copy.', undefined, LOAD)).toBeTruthy();
     expect(ScriptedXhr.sent).toHaveLength(0);
-    expect(screen.queryByRole('button', { name: 'Try the side photo again' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Try again: the side photo' })).toBeNull();
     // Another photo can be chosen straight away.
     expect(screen.getByRole('button', { name: 'Add a side photo' })).toBeTruthy();
   });

@@ -133,7 +133,7 @@ describe('the photo wall of a trial', () => {
   it('opens a photo at full size from a fresh link, naming the tester, size and who may see it', async () => {
     mockedUseIsWide.mockReturnValue(true);
     renderWall();
-    fireEvent.press(await screen.findByRole('button', { name: 'Open the side photo of Tester Cy, size L' }, LOAD));
+    fireEvent.press(await screen.findByRole('button', { name: /^Open the side photo of Tester Cy, size L\./ }, LOAD));
     const full = await screen.findByLabelText('Side · Tester Cy · size L (Fuller belly), full size', undefined, LOAD);
     expect(full.props.source).toEqual({ uri: 'https://store.example.test/l-side-cy.jpg?sig=full' });
     expect(requested).toContainEqual({ url: '/api/photos/l-side-cy/link', method: 'POST' });

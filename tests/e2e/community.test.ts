@@ -61,7 +61,7 @@ describe('the studio and its testers in Chromium', () => {
     await page.getByRole('radiogroup', { name: 'Height band' }).getByRole('radio', { name: /^180 cm/ }).click();
     await page.getByRole('group', { name: 'Record' }).getByRole('checkbox', { name: 'Finished a trial' }).click();
     await page.getByText('1 person').waitFor();
-    await page.getByRole('checkbox', { name: 'Choose Tide Tester 8' }).click();
+    await page.getByRole('checkbox', { name: 'Tide Tester 8' }).click();
     await page.getByRole('radiogroup', { name: 'Call' }).getByRole('radio', { name: 'Tide trousers, second round' }).click();
     await page.getByRole('button', { name: 'Invite 1 to apply' }).click();
     await page.getByText('1 invited by e-mail.').waitFor();

@@ -110,7 +110,7 @@ describe('My trials after finishing, and steps that ask before they act', () => 
     await page.getByText(`${grader.email} · Coordinator`).waitFor();
     expect((await Membership.findByPk(graderMembership.id))!.role).toBe('coordinator');
 
-    await page.getByRole('button', { name: `Remove ${coordinator.name} from the studio` }).click();
+    await page.getByRole('button', { name: `Remove from the studio: ${coordinator.name}` }).click();
     await page.getByRole('group', { name: `Remove ${coordinator.name} from the studio?` }).getByText('• To have them back, send a new invitation.').waitFor();
     expect(await Membership.findByPk(coordinatorMembership.id)).not.toBeNull();
     await page.getByRole('button', { name: 'Yes, remove' }).click();

@@ -75,13 +75,13 @@ describe('a designer starts a studio and invites a grader, in Chromium', () => {
     await phone.getByRole('button', { name: 'Accept the invitation' }).click();
     await phone.getByRole('heading', { name: 'Trials', level: 1 }).waitFor();
     await phone.getByText('Slipstitch Studio · Grader').waitFor();
-    await phone.getByText('Read-only').waitFor();
+    await phone.getByText('Triage and notes').waitFor();
     const nav = phone.getByRole('navigation', { name: 'Sections' });
     for (const section of ['Trials', 'Patterns', 'Findings']) {
       expect(await nav.getByRole('link', { name: section }).count()).toBe(1);
     }
     expect(await nav.getByRole('link', { name: 'Members' }).count()).toBe(0);
-    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'grader-read-only-phone.png') });
+    await phone.screenshot({ path: path.join(SCREENSHOT_DIR, 'grader-badge-phone.png') });
 
     // Typing the address of a page the role may not use shows nothing of it.
     await phone.goto('/members');

@@ -122,7 +122,7 @@ describe('a fit trial from call to selection, in Chromium', () => {
     await testerA.getByText(/^Next: Toile check-in due, /).waitFor();
 
     // The coordinator gives this one tester three more days for the toile.
-    await page.getByRole('button', { name: 'Give Tess Tester more time: Toile check-in due' }).click();
+    await page.getByRole('button', { name: 'Give more time: Tess Tester, Toile check-in due' }).click();
     await page.getByLabel('New date for Tess Tester, toile check-in due').fill(at(17));
     await page.getByRole('button', { name: 'Save the new date' }).click();
     await page.getByText('New date saved for this tester.').waitFor();

@@ -23,7 +23,8 @@ export default function FindingsScreen() {
         <View style={styles.list}>
           {data?.map((t) => (
             <Link key={t.id} href={{ pathname: '/findings/[trialId]', params: { trialId: t.id } }} asChild>
-              <Pressable role="link" aria-label={`Findings of ${t.title}`} style={styles.row}>
+              <Pressable role="link" style={styles.row}>
+                <AppText variant="caption">Findings of</AppText>
                 <AppText variant="heading">{t.title}</AppText>
                 <AppText variant="caption">{`${TRIAL_STATE_LABELS[t.state]} · ${t.pattern?.name ?? ''}`}</AppText>
               </Pressable>

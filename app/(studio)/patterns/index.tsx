@@ -9,7 +9,8 @@ import { AppText } from '@/components/ui/text';
 import { colors, radius, space } from '@/constants/theme';
 import { usePatterns } from '@/hooks/use-patterns';
 import { useSession } from '@/hooks/use-session';
-import { FABRIC_KINDS, GARMENT_CATEGORIES } from '@/server/domain/garments';
+import { offersFullerBelly } from '@/server/domain/category-wording';
+import { FABRIC_KINDS, GARMENT_CATEGORIES, isGarmentCategory } from '@/server/domain/garments';
 import { can } from '@/server/domain/policy';
 
 const categoryLabel = (key: string) => GARMENT_CATEGORIES.find((c) => c.key === key)?.label ?? key;
@@ -28,7 +29,7 @@ export default function PatternsScreen() {
         <View style={styles.list}>
           {data?.map((p) => (
             <Link key={p.id} href={{ pathname: '/patterns/[id]', params: { id: p.id } }} asChild>
-              <Pressable role="link" aria-label={`${p.name}, ${categoryLabel(p.category)}`} style={styles.row}>
+              <Pressable role="link" style={styles.row}>
                 <AppText variant="heading">{p.name}</AppText>
                 <AppText variant="caption">
                   {`${categoryLabel(p.category)} · ${fabricLabel(p.fabricKind)}${p.minStretchPct != null ? ` (${p.minStretchPct} % stretch)` : ''} · ${
@@ -40,7 +41,10 @@ export default function PatternsScreen() {
           ))}
         </View>
       </Card>
-      {currentStudio && session && can(currentStudio.role, 'studio.update') ? <StudioSettingsCard studioId={currentStudio.id} unit={session.user.lengthUnit} /> : null}
+      {/* The fuller-belly setting concerns only garments that are offered that variant. */}
+      {currentStudio && session && can(currentStudio.role, 'studio.update') && data?.some((p) => isGarmentCategory(p.category) && offersFullerBelly(p.category)) ? (
+        <StudioSettingsCard studioId={currentStudio.id} unit={session.user.lengthUnit} />
+      ) : null}
     </Screen>
   );
 }

@@ -30,7 +30,7 @@ export default function TrialsScreen() {
             const next = t.milestones.find((m) => new Date(m.dueAt).getTime() > now);
             return (
               <Link key={t.id} href={{ pathname: '/trials/[id]', params: { id: t.id } }} asChild>
-                <Pressable role="link" aria-label={t.title} style={styles.row}>
+                <Pressable role="link" style={styles.row}>
                   <AppText variant="heading">{t.title}</AppText>
                   <AppText variant="caption">
                     {`${TRIAL_STATE_LABELS[t.state]} · ${t.pattern?.name ?? ''}${next ? ` · next: ${next.label.toLowerCase()} ${dayjs(next.dueAt).format('D MMM')}` : ''}`}

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, Switch, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
 import { PhotosSection } from '@/components/photos/photos-section';
 import { AlterationsEditor } from '@/components/reports/alterations-editor';
 import { FabricUsedEditor } from '@/components/reports/fabric-used-editor';
@@ -13,6 +13,7 @@ import { Notice } from '@/components/ui/notice';
 import { Screen } from '@/components/ui/screen';
 import { LoadError, Loading } from '@/components/ui/states';
 import { AppText } from '@/components/ui/text';
+import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
 import { colors, fonts, space } from '@/constants/theme';
 import { ApiError } from '@/hooks/api';
@@ -34,6 +35,8 @@ export default function ReportScreen() {
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [busy, setBusy] = useState(false);
   const [editing, setEditing] = useState(false);
+  // A step just added from its button: its first field takes the focus.
+  const [addedStep, setAddedStep] = useState<number | null>(null);
   // Typed text that could not be read, by field label: it is not data yet, so submitting waits.
   const [unreadable, setUnreadable] = useState<Record<string, string>>({});
   const mine = trials?.find((t) => t.enrollment?.id === enrollmentId);
@@ -159,27 +162,33 @@ export default function ReportScreen() {
           <AlterationsEditor category={category} value={content.alterations ?? []} unit={unit} readOnly={readOnly} onChange={(alterations) => update({ alterations })} errors={fieldErrors} onInputError={noteUnreadable} />
         </Card>
         <Card title="Fabric used">
-          <FabricUsedEditor value={content.fabric} lengthUnit={unit} fabricUnit={session.user.fabricUnit} readOnly={readOnly} onChange={(fabric) => update({ fabric })} errors={fieldErrors} onInputError={noteUnreadable} />
+          <FabricUsedEditor fabricKind={mine.trial.fabricKind} value={content.fabric} lengthUnit={unit} fabricUnit={session.user.fabricUnit} readOnly={readOnly} onChange={(fabric) => update({ fabric })} errors={fieldErrors} onInputError={noteUnreadable} />
         </Card>
         <Card title="Instructions">
           <AppText variant="caption">Steps that confused you: the step number and what was unclear.</AppText>
           {(content.unclearSteps ?? []).map((s, i) => (
             <View key={i} style={styles.step}>
-              <TextField label={`Unclear step ${i + 1}: number`} value={s.step} editable={!readOnly} onChangeText={(step) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, step } : x)) })} error={fieldErrors[`unclearSteps.${i}.step`]} />
+              <TextField autoFocus={addedStep === i} label={`Unclear step ${i + 1}: number`} value={s.step} editable={!readOnly} onChangeText={(step) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, step } : x)) })} error={fieldErrors[`unclearSteps.${i}.step`]} />
               <TextField label={`Unclear step ${i + 1}: what was unclear`} value={s.problem} editable={!readOnly} multiline onChangeText={(problem) => update({ unclearSteps: (content.unclearSteps ?? []).map((x, j) => (j === i ? { ...x, problem } : x)) })} error={fieldErrors[`unclearSteps.${i}.problem`]} />
             </View>
           ))}
-          {!readOnly ? <Button label="Add a step" tone="quiet" onPress={() => update({ unclearSteps: [...(content.unclearSteps ?? []), { step: '', problem: '' }] })} /> : null}
+          {!readOnly ? (
+            <Button
+              label="Add a step"
+              tone="quiet"
+              onPress={() => {
+                setAddedStep((content.unclearSteps ?? []).length);
+                update({ unclearSteps: [...(content.unclearSteps ?? []), { step: '', problem: '' }] });
+              }}
+            />
+          ) : null}
         </Card>
         <Card title="Photos">
           <PhotosSection enrollmentId={enrollmentId} stage={stage} readOnly={readOnly} />
         </Card>
         <Card title="Verdict">
           <TextField label="Overall verdict" value={content.verdict ?? ''} editable={!readOnly} multiline onChangeText={(verdict) => update({ verdict })} error={fieldErrors.verdict} />
-          <View style={styles.switchRow}>
-            <Switch aria-label="I would make it again" disabled={readOnly} value={content.wouldMakeAgain ?? false} onValueChange={(wouldMakeAgain) => update({ wouldMakeAgain })} trackColor={{ true: colors.thread, false: colors.line }} />
-            <AppText>I would make it again</AppText>
-          </View>
+          <SwitchField label="I would make it again" disabled={readOnly} value={content.wouldMakeAgain} onValueChange={(wouldMakeAgain) => update({ wouldMakeAgain })} />
         </Card>
         {outcome ? <Notice tone={outcome.tone}>{outcome.text}</Notice> : null}
         {!readOnly ? (
@@ -202,5 +211,4 @@ const styles = StyleSheet.create({
   strong: { fontFamily: fonts.semibold },
   receipt: { gap: space.xs, padding: space.md, borderRadius: 8, backgroundColor: colors.threadSoft },
   step: { gap: space.xs },
-  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 44 },
 });
