@@ -64,16 +64,16 @@ describe('a tester’s own account, in Chromium', () => {
 
     const link = firstLink((await waitForMessage(user.email, 'Reset your Basted password')).text, '/reset-password');
     await page.goto(link);
-    await page.getByLabel('New password').fill('short');
+    await page.getByLabel('New password', { exact: true }).fill('short');
     await page.getByRole('button', { name: 'Save and sign in' }).click();
     await page.getByText('New password: Use at least 10 characters').waitFor();
-    await page.getByLabel('New password').fill('a much longer password');
+    await page.getByLabel('New password', { exact: true }).fill('a much longer password');
     await page.getByRole('button', { name: 'Save and sign in' }).click();
     await page.getByRole('heading', { name: 'Your studios' }).waitFor();
 
     // The link is spent.
     await page.goto(link);
-    await page.getByLabel('New password').fill('yet another password');
+    await page.getByLabel('New password', { exact: true }).fill('yet another password');
     await page.getByRole('button', { name: 'Save and sign in' }).click();
     await page.getByText('This reset link has expired or was used already. Ask for a new one.').waitFor();
     expect(h.errors).toEqual([]);
